@@ -1,0 +1,12 @@
+// @ts-check
+import withNuxt from './.nuxt/eslint.config.mjs'
+
+export default withNuxt(
+  { ignores: ['.data/**', '.output/**', 'coverage/**'] },
+  {
+    rules: {
+      'vue/multi-word-component-names': 'off',
+      '@typescript-eslint/no-non-null-assertion': 'off',
+    },
+  },
+)

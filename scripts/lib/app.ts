@@ -1,0 +1,23 @@
+import type { ChildProcess } from 'node:child_process'
+import { join } from 'node:path'
+import type { LocalEnv } from './env'
+import { ROOT, serverEnv } from './env'
+import { portOpen, startDetached, waitFor } from './proc'
+
+/** Runs the built server (.output) with the local services' settings. */
+export async function startApp(env: LocalEnv, extra: Record<string, string> = {}, port = env.app.port): Promise<ChildProcess> {
+  if (await portOpen(port, env.app.host)) throw new Error(`Port ${port} is already in use: set PORT to another one.`)
+  const child = startDetached(process.execPath, [join(ROOT, '.output', 'server', 'index.mjs')], {
+    cwd: ROOT,
+    env: {
+      ...process.env,
+      ...serverEnv(env),
+      PORT: String(port),
+      NITRO_PORT: String(port),
+      NODE_OPTIONS: [process.env.NODE_OPTIONS, '--max-semi-space-size=64'].filter(Boolean).join(' '),
+      ...extra,
+    },
+  })
+  await waitFor(`the app on port ${port}`, () => portOpen(port, env.app.host), 60_000)
+  return child
+}

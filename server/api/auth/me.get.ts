@@ -1,0 +1,3 @@
+export default defineEventHandler(async (event) => {
+  return { user: await getCurrentUser(event) }
+})

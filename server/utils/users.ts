@@ -1,0 +1,129 @@
+import { createHash, randomBytes } from 'node:crypto'
+import type { Knex } from 'knex'
+import type { Role } from '#shared/types/roles'
+import type { CurrentUser, UserRow } from '#shared/types/users'
+
+interface UserDbRow {
+  id: number
+  email: string
+  display_name: string
+  role: Role
+  password_hash: string | null
+  disabled: number | boolean
+  session_version: number
+  created_at: Date | string
+}
+
+function toUserRow(row: UserDbRow): UserRow {
+  return {
+    id: row.id,
+    email: row.email,
+    displayName: row.display_name,
+    role: row.role,
+    disabled: Boolean(row.disabled),
+    createdAt: new Date(row.created_at).toISOString(),
+  }
+}
+
+export async function findUserByEmail(email: string): Promise<UserDbRow | undefined> {
+  return useDb()<UserDbRow>('users').where({ email }).first()
+}
+
+export async function listUsers(): Promise<UserRow[]> {
+  const rows = await useDb()<UserDbRow>('users').orderBy('id')
+  return rows.map(toUserRow)
+}
+
+export async function getUserRow(id: number): Promise<UserRow | undefined> {
+  const row = await useDb()<UserDbRow>('users').where({ id }).first()
+  return row ? toUserRow(row) : undefined
+}
+
+/** Creates a user; 409 when the e-mail is already registered (case-insensitively). */
+export async function createUser(input: { email: string, displayName: string, role: Role, password?: string }, trx?: Knex.Transaction): Promise<UserRow> {
+  const db = trx ?? useDb()
+  try {
+    const [id] = await db('users').insert({
+      email: input.email.toLowerCase(),
+      display_name: input.displayName,
+      role: input.role,
+      password_hash: input.password ? await hashPassword(input.password) : null,
+    })
+    const row = await db<UserDbRow>('users').where({ id }).first()
+    return toUserRow(row!)
+  }
+  catch (error) {
+    if (isDuplicateEntry(error)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'An account with this e-mail already exists.', data: { issues: [{ path: 'email', message: 'Already registered' }] } })
+    throw error
+  }
+}
+
+/** Role, name or disabled flag; disabling bumps the session version so it applies at once. */
+export async function updateUser(actor: CurrentUser, id: number, changes: { role?: Role, disabled?: boolean, displayName?: string }): Promise<UserRow> {
+  if (actor.id === id && (changes.disabled === true || (changes.role && changes.role !== 'admin'))) {
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'You cannot disable yourself or remove your own admin role.' })
+  }
+  const patch: Record<string, unknown> = {}
+  if (changes.role) patch.role = changes.role
+  if (changes.displayName) patch.display_name = changes.displayName
+  if (changes.disabled !== undefined) patch.disabled = changes.disabled
+  const db = useDb()
+  const count = await db('users').where({ id }).update({
+    ...patch,
+    ...(changes.disabled ? { session_version: db.raw('session_version + 1') } : {}),
+  })
+  if (!count) notFound('No such user.')
+  return (await getUserRow(id))!
+}
+
+export async function bumpSessionVersion(id: number): Promise<number> {
+  const db = useDb()
+  await db('users').where({ id }).update({ session_version: db.raw('session_version + 1') })
+  const row = await db('users').where({ id }).first('session_version')
+  return Number(row.session_version)
+}
+
+export async function verifyUserPassword(id: number, password: string): Promise<boolean> {
+  const row = await useDb()<UserDbRow>('users').where({ id }).first('password_hash')
+  return Boolean(row?.password_hash) && await verifyPassword(row!.password_hash!, password)
+}
+
+/** New password; every other session of this user ends (session version bumped). */
+export async function setPassword(id: number, password: string): Promise<number> {
+  await useDb()('users').where({ id }).update({ password_hash: await hashPassword(password) })
+  return bumpSessionVersion(id)
+}
+
+const TOKEN_HOURS = { invite: 72, reset: 1 } as const
+type TokenPurpose = keyof typeof TOKEN_HOURS
+
+const hashToken = (token: string) => createHash('sha256').update(token).digest('hex')
+
+/** A one-time token for an e-mailed link; only its hash is stored. */
+export async function issueUserToken(userId: number, purpose: TokenPurpose, trx?: Knex.Transaction): Promise<string> {
+  const token = randomBytes(32).toString('base64url')
+  const db = trx ?? useDb()
+  await db('user_tokens').insert({
+    user_id: userId,
+    purpose,
+    token_hash: hashToken(token),
+    expires_at: db.raw('NOW(3) + INTERVAL ? HOUR', [TOKEN_HOURS[purpose]]),
+  })
+  return token
+}
+
+/** Uses a token once, inside one transaction, and sets the password. */
+export async function redeemUserToken(token: string, password: string): Promise<void> {
+  const passwordHash = await hashPassword(password)
+  await useDb().transaction(async (trx) => {
+    const row = await trx('user_tokens')
+      .where({ token_hash: hashToken(token) })
+      .whereNull('used_at')
+      .where('expires_at', '>', trx.raw('NOW(3)'))
+      .forUpdate()
+      .first('id', 'user_id')
+    if (!row) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'This link is not valid any more. Ask for a new one.' })
+    await trx('user_tokens').where({ id: row.id }).update({ used_at: trx.raw('NOW(3)') })
+    await trx('users').where({ id: row.user_id }).update({ password_hash: passwordHash, session_version: trx.raw('session_version + 1') })
+  })
+}
