@@ -1,6 +1,6 @@
 // Every app server runs this loop; row locks in deliverDueMail keep sends unique.
 export default defineNitroPlugin((nitroApp) => {
-  if (process.env.PULLSHEET_WORKERS === '0') return
+  if (import.meta.prerender || process.env.PULLSHEET_WORKERS === '0') return
   const intervalMs = Number(process.env.MAIL_POLL_MS ?? 2000)
   let running = false
   const timer = setInterval(async () => {

@@ -1,6 +1,7 @@
 import type { H3Event } from 'h3'
 import type { Role } from '#shared/types/roles'
 import type { CurrentUser } from '#shared/types/users'
+import { decideAccess } from '#shared/utils/access'
 
 interface UserRecord { id: number, email: string, display_name: string, role: Role, disabled: number | boolean, session_version: number }
 
@@ -30,9 +31,9 @@ export async function getCurrentUser(event: H3Event): Promise<CurrentUser | null
 /** The one gate for protected routes: 401 when signed out, 403 when the role is not listed. */
 export async function requireRole(event: H3Event, ...roles: Role[]): Promise<CurrentUser> {
   const user = await getCurrentUser(event)
-  if (!user) throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: 'Sign in first.' })
-  if (!roles.includes(user.role)) throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Your role may not do this.' })
-  return user
+  const decision = decideAccess(user, roles)
+  if (!decision.ok) throw createError({ statusCode: decision.status, statusMessage: decision.status === 401 ? 'Unauthorized' : 'Forbidden', message: decision.message })
+  return user!
 }
 
 declare module 'h3' {

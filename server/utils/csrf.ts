@@ -1,6 +1,5 @@
 import type { H3Event } from 'h3'
-
-const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS'])
+import { csrfReason } from '#shared/utils/access'
 
 /** The origins this server answers as: the configured base URL and the Host it was reached by. */
 function ownOrigins(event: H3Event): Set<string> {
@@ -13,15 +12,12 @@ function ownOrigins(event: H3Event): Set<string> {
   return origins
 }
 
-/**
- * nuxt-auth-utils does no CSRF protection. A state-changing request is refused
- * when its Origin is foreign, or when it carries a session cookie but no Origin
- * (browsers always send Origin on cross-site and same-origin fetch POSTs).
- */
+/** nuxt-auth-utils does no CSRF protection; browsers send Origin on every fetch POST. */
 export function csrfRejection(event: H3Event): string | null {
-  if (SAFE_METHODS.has(event.method)) return null
-  const origin = getRequestHeader(event, 'origin')
-  if (origin) return ownOrigins(event).has(origin) ? null : `Cross-origin request from ${origin} refused.`
-  const hasSession = (getRequestHeader(event, 'cookie') ?? '').includes('pullsheet-session=')
-  return hasSession ? 'Request without an Origin header refused.' : null
+  return csrfReason({
+    method: event.method,
+    origin: getRequestHeader(event, 'origin'),
+    hasSessionCookie: (getRequestHeader(event, 'cookie') ?? '').includes('pullsheet-session='),
+    ownOrigins: ownOrigins(event),
+  })
 }

@@ -1,21 +1,24 @@
 import type { ZodType } from 'zod'
 import type { FieldIssue } from '#shared/types/users'
 
+/** h3 wraps whatever a validator throws as `data` of a 400; toJSON decides what the client sees. */
+class InvalidInput extends Error {
+  constructor(readonly issues: FieldIssue[]) {
+    super(issues.map(i => `${i.path}: ${i.message}`).join('; '))
+  }
+
+  toJSON() { return { issues: this.issues } }
+}
+
 /**
- * Turns a zod schema into the parser h3's getValidated* helpers expect; failures
- * become 400 with every field's problem, in the one shape the interface reads.
+ * Turns a zod schema into the parser h3's getValidated* / readValidatedBody expect;
+ * a failure is a 400 listing every field's problem in the one shape the interface reads.
  */
 export function zodParser<T>(schema: ZodType<T>) {
   return (input: unknown): T => {
     const result = schema.safeParse(input)
     if (result.success) return result.data
-    const issues: FieldIssue[] = result.error.issues.map(i => ({ path: i.path.join('.') || '(body)', message: i.message }))
-    throw createError({
-      statusCode: 400,
-      statusMessage: 'Invalid input',
-      message: issues.map(i => `${i.path}: ${i.message}`).join('; '),
-      data: { issues },
-    })
+    throw new InvalidInput(result.error.issues.map(i => ({ path: i.path.join('.') || '(body)', message: i.message })))
   }
 }
 

@@ -1,0 +1,76 @@
+// npm test: lint, typecheck, unit tests; then its own services on other ports with
+// throwaway data, one build, the built server, API and browser tests; then stop all.
+import { existsSync, readFileSync, rmSync } from 'node:fs'
+import { join } from 'node:path'
+import { startApp } from './lib/app'
+import { buildIfNeeded } from './lib/build'
+import { migrate, seed } from './lib/database'
+import { localEnv, ROOT, serverEnv } from './lib/env'
+import { killGroup, runInherit } from './lib/proc'
+import { startServices, type RunningServices } from './lib/services'
+
+const bin = (name: string) => join(ROOT, 'node_modules', '.bin', name)
+const only = process.argv.slice(2) // e.g. `npm test -- api` runs one project after the checks
+const failures: string[] = []
+const totals = { passed: 0, failed: 0, skipped: 0 }
+
+async function step(name: string, cmd: string, args: string[], env: Record<string, string> = {}) {
+  console.log(`\n=== ${name} ===`)
+  const code = await runInherit(cmd, args, { cwd: ROOT, env: { ...process.env, ...env } })
+  if (code !== 0) failures.push(name)
+}
+
+async function vitest(project: string, env: Record<string, string> = {}) {
+  if (only.length && !only.includes(project)) return
+  const report = join(ROOT, '.data', 'test', `vitest-${project}.json`)
+  rmSync(report, { force: true })
+  await step(`${project} tests`, bin('vitest'), ['run', '--project', project, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`], env)
+  if (existsSync(report)) {
+    const r = JSON.parse(readFileSync(report, 'utf8')) as { numPassedTests: number, numFailedTests: number, numPendingTests: number, numTodoTests: number }
+    totals.passed += r.numPassedTests
+    totals.failed += r.numFailedTests
+    totals.skipped += r.numPendingTests + r.numTodoTests
+  }
+}
+
+const env = localEnv('test')
+rmSync(env.dataDir, { recursive: true, force: true })
+const testEnv = localEnv('test') // regenerates throwaway secrets
+const settings = serverEnv(testEnv)
+let services: RunningServices | undefined
+let app: Awaited<ReturnType<typeof startApp>> | undefined
+
+try {
+  if (!only.length) {
+    await step('lint', bin('eslint'), ['.'])
+    await step('typecheck', bin('vue-tsc'), ['-b', '--noEmit'])
+  }
+  await vitest('unit')
+  if (!only.length || only.some(p => p !== 'unit')) {
+    await buildIfNeeded()
+    services = await startServices(testEnv)
+    await migrate(settings.DATABASE_URL!)
+    await seed(settings.DATABASE_URL!)
+    const serverExtra = { MAIL_POLL_MS: '300', MAIL_RETRY_BASE_SECONDS: '1', TRUST_PROXY: '1' }
+    app = await startApp(testEnv, serverExtra)
+    const testVars = {
+      ...settings,
+      TEST_BASE_URL: testEnv.app.baseUrl,
+      TEST_SERVER_EXTRA: JSON.stringify(serverExtra),
+      NODE_ENV: 'test',
+    }
+    await vitest('api', testVars)
+    await vitest('browser', testVars)
+  }
+}
+catch (error) {
+  failures.push((error as Error).message)
+}
+finally {
+  if (app) await killGroup(app)
+  await services?.stop()
+}
+
+console.log(`\n${failures.length ? `failed steps: ${failures.join(', ')}` : 'all steps passed'}`)
+console.log(`tests: ${totals.passed} passed, ${totals.failed} failed${totals.skipped ? `, ${totals.skipped} skipped` : ''}`)
+process.exit(failures.length || totals.failed ? 1 : 0)
