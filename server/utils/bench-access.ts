@@ -1,0 +1,44 @@
+import type { Knex } from 'knex'
+import type { CurrentUser } from '#shared/types/users'
+
+export interface BenchTestRecord {
+  id: number
+  slug: string
+  title: string
+  engine_family: string
+  part_type: string
+  shop: string
+  dyno: string
+  tested_from: Date | string | null
+  tested_to: Date | string | null
+  notes: string
+  owner_id: number
+  default_standard: string
+  version: number
+  deleted_at: Date | string | null
+  created_at: Date | string
+  updated_at: Date | string
+}
+
+/** Editors and admins reach every bench test; writers only their own. */
+export function seesAllBenchTests(user: CurrentUser): boolean {
+  return user.role === 'editor' || user.role === 'admin'
+}
+
+/**
+ * The bench tests this user may reach, as a query: ownership lives in the SQL
+ * WHERE, so a writer asking for another writer's id finds nothing (404).
+ */
+export function visibleBenchTests(db: Knex | Knex.Transaction, user: CurrentUser, opts: { includeDeleted?: boolean } = {}) {
+  const query = db<BenchTestRecord>('bench_tests')
+  if (!opts.includeDeleted) query.whereNull('bench_tests.deleted_at')
+  if (!seesAllBenchTests(user)) query.where('bench_tests.owner_id', user.id)
+  return query
+}
+
+/** The bench test, or 404 when it does not exist or is not this user's to reach. */
+export async function requireBenchTest(user: CurrentUser, id: number, db: Knex | Knex.Transaction = useDb()): Promise<BenchTestRecord> {
+  const row = await visibleBenchTests(db, user).where('bench_tests.id', id).first()
+  if (!row) notFound('No such bench test.')
+  return row
+}
