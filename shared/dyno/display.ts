@@ -19,5 +19,10 @@ export function downsampleForDisplay(points: readonly PullPoint[], maxPoints: nu
   const first = sorted[0]
   const last = sorted[sorted.length - 1]
   if (maxPoints === 2 && first && last) return [first, last]
-  return Array.from(lttbOnPower(sorted, maxPoints))
+  const picked = Array.from(lttbOnPower(sorted, maxPoints))
+  // downsample 1.4 sizes its buckets in floating point; when (n - 2) / (k - 2) x (k - 2)
+  // comes out a hair under n - 2, it drops the last centre point and returns the
+  // second-to-last sample where LTTB's fixed last point belongs. Put the real one back.
+  if (last && picked[picked.length - 1] !== last) picked[picked.length - 1] = last
+  return picked
 }
