@@ -1,16 +1,7 @@
 // https://nuxt.com/docs/api/configuration/nuxt-config
 export default defineNuxtConfig({
-  compatibilityDate: '2026-11-01',
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/content', '@nuxt/eslint'],
   devtools: { enabled: false },
-  telemetry: false,
-  css: [
-    '@fontsource/merriweather/400.css',
-    '@fontsource/merriweather/400-italic.css',
-    '@fontsource/merriweather/700.css',
-    '@fontsource/merriweather/900.css',
-    '~/assets/css/main.css',
-  ],
   app: {
     head: {
       htmlAttrs: { lang: 'en' },
@@ -19,7 +10,18 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
-  typescript: { strict: true },
+  css: [
+    '@fontsource/merriweather/400.css',
+    '@fontsource/merriweather/400-italic.css',
+    '@fontsource/merriweather/700.css',
+    '@fontsource/merriweather/900.css',
+    '~/assets/css/main.css',
+  ],
+  content: {
+    // Inside .data so the built server can write it (the output folder may be read-only).
+    database: { type: 'sqlite', filename: '.data/content/contents.sqlite' },
+    experimental: { sqliteConnector: 'better-sqlite3' },
+  },
   runtimeConfig: {
     session: {
       name: 'pullsheet-session',
@@ -28,15 +30,13 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', secure: true, httpOnly: true },
     },
   },
-  content: {
-    // Inside .data so the built server can write it (the output folder may be read-only).
-    database: { type: 'sqlite', filename: '.data/content/contents.sqlite' },
-    experimental: { sqliteConnector: 'better-sqlite3' },
-  },
+  compatibilityDate: '2026-11-01',
   nitro: {
     experimental: { tasks: true },
   },
+  vite: { build: { sourcemap: false } },
+  typescript: { strict: true },
+  telemetry: false,
   eslint: { config: { stylistic: true } },
   tailwindcss: { cssPath: false },
-  vite: { build: { sourcemap: false } },
 })

@@ -60,8 +60,12 @@ export function startDetached(cmd: string, args: string[], opts: SpawnOptions = 
 export function killGroup(child: ChildProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
   return new Promise((resolve) => {
     if (child.exitCode !== null || child.signalCode !== null || !child.pid) return resolve()
-    const timer = setTimeout(() => { try { process.kill(-child.pid!, 'SIGKILL') } catch { /* gone */ } }, 5000)
+    const timer = setTimeout(() => {
+      try { process.kill(-child.pid!, 'SIGKILL') }
+      catch { /* gone */ }
+    }, 5000)
     child.once('exit', () => { clearTimeout(timer); resolve() })
-    try { process.kill(-child.pid, signal) } catch { clearTimeout(timer); resolve() }
+    try { process.kill(-child.pid, signal) }
+    catch { clearTimeout(timer); resolve() }
   })
 }

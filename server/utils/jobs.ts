@@ -1,7 +1,8 @@
 import type { Knex } from 'knex'
 
 export interface JobRow { id: number, kind: string, payload: unknown, attempts: number, max_attempts: number }
-export type JobHandler = (payload: any, job: JobRow) => Promise<void>
+// Each handler validates its own payload (it was written by this app, but rows outlive releases).
+export type JobHandler = (payload: unknown, job: JobRow) => Promise<void>
 
 /** Queues a job, inside the caller's transaction when given one. */
 export async function enqueueJob(db: Knex | Knex.Transaction, kind: string, payload: unknown, opts: { runAt?: Date, maxAttempts?: number } = {}): Promise<number> {
