@@ -1,0 +1,272 @@
+// Figures a story places in its Markdown body with MDC syntax, under names of our
+// own. Block figures stand on a line of their own and close with `::`:
+//
+//   ::pull-graph{setups="12,13" channel="power" from=2500 to=6500}
+//   ::
+//
+// The inline value sits in a sentence: `the cam gained :figure-value{of="peak-power-gain" setup=13 vs=12}`.
+// (Not `:figure`, which the renderer would confuse with the HTML <figure> element.)
+// Setup and photo ids are the database ids of the story's bench test; they stay
+// put when setups are reordered. MDC hands every value over as written, so the
+// option schemas accept "12" as well as 12.
+import { z } from 'zod'
+import { reportFixed, reportRound } from '../dyno/round'
+import type { AnalysisGains, AnalysisResponse, AnalysisRow } from './workspace'
+
+const ID_LIST = /^\s*\d+(\s*,\s*\d+)*\s*$/
+
+const IdProp = z.coerce.number({ error: 'Use a number id' }).int('Use a whole-number id').positive('Use an id above 0')
+const IdListProp = z.union([
+  z.string().regex(ID_LIST, 'Use ids separated by commas, like "12,13"').transform(s => s.split(',').map(Number)),
+  z.array(IdProp),
+]).transform(list => [...new Set(list)])
+  .refine(list => list.length >= 1 && list.length <= 24, 'Name from 1 to 24 ids')
+const RpmProp = z.coerce.number({ error: 'Use an rpm as a number' }).int('Use a whole rpm').min(0).max(20_000, 'Above 20,000 rpm is not plausible')
+const CaptionProp = z.string().max(500, 'Keep the caption under 500 characters')
+
+export const GRAPH_CHANNELS = [
+  { id: 'both', label: 'Power and torque' },
+  { id: 'power', label: 'Power' },
+  { id: 'torque', label: 'Torque' },
+] as const
+export type GraphChannel = typeof GRAPH_CHANNELS[number]['id']
+const ChannelProp = z.enum(GRAPH_CHANNELS.map(c => c.id) as [GraphChannel, ...GraphChannel[]])
+
+const rpmInOrder = (o: { from?: number, to?: number }) => o.from === undefined || o.to === undefined || o.from < o.to
+const RPM_ORDER = { message: '"from" is below "to"', path: ['to'] }
+
+/** Overlay of setups' curves against rpm. Without setups: every analysed setup. */
+export const PullGraphProps = z.strictObject({
+  setups: IdListProp.optional(),
+  channel: ChannelProp.default('both'),
+  from: RpmProp.optional(),
+  to: RpmProp.optional(),
+  caption: CaptionProp.optional(),
+}).refine(rpmInOrder, RPM_ORDER)
+
+/** Gain curves (setup minus baseline at each rpm). Without baseline: the bench test's. */
+export const GainGraphProps = z.strictObject({
+  baseline: IdProp.optional(),
+  setups: IdListProp.optional(),
+  channel: ChannelProp.default('both'),
+  from: RpmProp.optional(),
+  to: RpmProp.optional(),
+  caption: CaptionProp.optional(),
+}).refine(rpmInOrder, RPM_ORDER)
+
+/** The results table: peaks, averages, gains, power band, idle vacuum. */
+export const ResultsTableProps = z.strictObject({
+  setups: IdListProp.optional(),
+  baseline: IdProp.optional(),
+  caption: CaptionProp.optional(),
+})
+
+/** The build sheet of the bench test's engine. */
+export const SpecBoxProps = z.strictObject({ caption: CaptionProp.optional() })
+
+/** A setup's cam card (durations, lifts, LSA, ICL and the events computed from them). */
+export const CamCardProps = z.strictObject({ setup: IdProp, caption: CaptionProp.optional() })
+
+export const PHOTO_SIZES = [{ id: 'wide', label: 'Full width' }, { id: 'inline', label: 'In the text column' }] as const
+export type PhotoSize = typeof PHOTO_SIZES[number]['id']
+
+/** One photo of the bench test with its caption and credit. */
+export const PhotoProps = z.strictObject({ id: IdProp, size: z.enum(['wide', 'inline']).default('wide') })
+
+/** Several photos in a row or grid. */
+export const GalleryProps = z.strictObject({ ids: IdListProp, caption: CaptionProp.optional() })
+
+/** The usual cautions (brief: "Cautions"); the text is the site's own, not the writer's. */
+export const CautionsProps = z.strictObject({})
+
+export const BLOCK_FIGURES = [
+  { name: 'pull-graph', label: 'Pull graph', schema: PullGraphProps, example: '::pull-graph{setups="1,2" channel="power"}' },
+  { name: 'gain-graph', label: 'Gain graph', schema: GainGraphProps, example: '::gain-graph{baseline=1 setups="2"}' },
+  { name: 'results-table', label: 'Results table', schema: ResultsTableProps, example: '::results-table' },
+  { name: 'spec-box', label: 'Build sheet box', schema: SpecBoxProps, example: '::spec-box' },
+  { name: 'cam-card', label: 'Cam card', schema: CamCardProps, example: '::cam-card{setup=2}' },
+  { name: 'photo', label: 'Photo', schema: PhotoProps, example: '::photo{id=12}' },
+  { name: 'gallery', label: 'Gallery', schema: GalleryProps, example: '::gallery{ids="12,13"}' },
+  { name: 'cautions', label: 'Cautions', schema: CautionsProps, example: '::cautions' },
+] as const
+export type BlockFigureName = typeof BLOCK_FIGURES[number]['name']
+
+export const INLINE_FIGURE_NAME = 'figure-value'
+
+// ---------- inline values ----------
+
+export type FigureUnit = 'hp' | 'lb-ft' | 'rpm' | 'inHg' | '%'
+
+/**
+ * Everything an inline value may name. `pair` figures compare `setup` with `vs`
+ * (default: the bench test's baseline); the others describe one setup.
+ */
+export const INLINE_FIGURES = [
+  { id: 'peak-power', label: 'Peak power', unit: 'hp', pair: false },
+  { id: 'peak-power-rpm', label: 'Rpm of peak power', unit: 'rpm', pair: false },
+  { id: 'peak-torque', label: 'Peak torque', unit: 'lb-ft', pair: false },
+  { id: 'peak-torque-rpm', label: 'Rpm of peak torque', unit: 'rpm', pair: false },
+  { id: 'average-power', label: 'Average power over the shared band', unit: 'hp', pair: false },
+  { id: 'average-torque', label: 'Average torque over the shared band', unit: 'lb-ft', pair: false },
+  { id: 'power-band', label: 'Power band (from-to)', unit: 'rpm', pair: false },
+  { id: 'power-band-width', label: 'Width of the power band', unit: 'rpm', pair: false },
+  { id: 'idle-vacuum', label: 'Idle vacuum', unit: 'inHg', pair: false },
+  { id: 'peak-power-gain', label: 'Peak-to-peak power gain', unit: 'hp', pair: true },
+  { id: 'peak-power-gain-pct', label: 'Peak-to-peak power gain, percent', unit: '%', pair: true },
+  { id: 'peak-torque-gain', label: 'Peak-to-peak torque gain', unit: 'lb-ft', pair: true },
+  { id: 'peak-torque-gain-pct', label: 'Peak-to-peak torque gain, percent', unit: '%', pair: true },
+  { id: 'average-power-gain', label: 'Average power gain', unit: 'hp', pair: true },
+  { id: 'average-power-gain-pct', label: 'Average power gain, percent', unit: '%', pair: true },
+  { id: 'average-torque-gain', label: 'Average torque gain', unit: 'lb-ft', pair: true },
+  { id: 'average-torque-gain-pct', label: 'Average torque gain, percent', unit: '%', pair: true },
+  { id: 'largest-power-gain', label: 'Largest power gain at one rpm', unit: 'hp', pair: true },
+  { id: 'largest-power-gain-rpm', label: 'Rpm of the largest power gain', unit: 'rpm', pair: true },
+  { id: 'largest-torque-gain', label: 'Largest torque gain at one rpm', unit: 'lb-ft', pair: true },
+  { id: 'largest-torque-gain-rpm', label: 'Rpm of the largest torque gain', unit: 'rpm', pair: true },
+  { id: 'largest-torque-loss', label: 'Largest torque loss at one rpm', unit: 'lb-ft', pair: true },
+  { id: 'torque-crossover-rpm', label: 'Torque crossover rpm', unit: 'rpm', pair: true },
+  { id: 'power-crossover-rpm', label: 'Power crossover rpm', unit: 'rpm', pair: true },
+  { id: 'idle-vacuum-change', label: 'Change of idle vacuum', unit: 'inHg', pair: true },
+] as const satisfies readonly { id: string, label: string, unit: FigureUnit, pair: boolean }[]
+export type InlineFigureKey = typeof INLINE_FIGURES[number]['id']
+export const InlineFigureKeySchema = z.enum(INLINE_FIGURES.map(f => f.id) as [InlineFigureKey, ...InlineFigureKey[]], { error: 'Choose a figure the data gives' })
+
+/** `:figure-value{of="peak-power-gain" setup=13 vs=12}`; decimals overrides the reporting default. */
+export const FigureValueProps = z.strictObject({
+  of: InlineFigureKeySchema,
+  setup: IdProp,
+  vs: IdProp.optional(),
+  decimals: z.coerce.number().int().min(0).max(2).optional(),
+})
+export type FigureValueOptions = z.infer<typeof FigureValueProps>
+
+/** Reporting precision (brief: peaks to the unit shown; one decimal where it matters). */
+export const DEFAULT_DECIMALS: Record<FigureUnit, number> = { 'hp': 0, 'lb-ft': 0, 'rpm': 0, 'inHg': 1, '%': 1 }
+
+/** Gains of one ordered pair of setups (setup minus vs), from the full corrected curves. */
+export interface FigureComparison { setupId: number, vsSetupId: number, gains: AnalysisGains }
+
+/** What the figures are computed from: the analysis (hp and lb-ft) and every pair's gains. */
+export interface FigureSource {
+  analysis: Pick<AnalysisResponse, 'baselineSetupId' | 'table' | 'units'> & { setups: { setupId: number, label: string }[] }
+  comparisons: readonly FigureComparison[]
+}
+
+export interface InlineFigureValue {
+  /** As the reader sees it: "488 hp", "6,200 rpm", "4.2%", "within repeatability". */
+  text: string
+  /** After reporting rounding; null when there is no such figure (no crossover ...). */
+  value: number | null
+  unit: FigureUnit
+  /** "Peak-to-peak power gain, Long-duration cam vs Baseline". */
+  label: string
+  /** True when the gain is no bigger than the spread of repeat pulls (shown as such, not as a gain). */
+  withinRepeatability: boolean | null
+  /** Why the value cannot be given (unknown setup ...); text is then "[no such figure]". */
+  problem: string | null
+}
+
+/** A reported number as text: ties away from zero, thousands grouped ("6,200"). */
+export function formatFigureNumber(value: number, decimals: number): string {
+  const fixed = reportFixed(value, decimals)
+  const negative = fixed.startsWith('-')
+  const [whole = '0', frac] = (negative ? fixed.slice(1) : fixed).split('.')
+  const grouped = whole.replace(/\B(?=(\d{3})+(?!\d))/g, ',')
+  return `${negative ? '-' : ''}${grouped}${frac === undefined ? '' : `.${frac}`}`
+}
+
+export function withUnit(number: string, unit: FigureUnit): string {
+  return unit === '%' ? `${number}%` : `${number} ${unit}`
+}
+
+export function inlineFigureMeta(key: InlineFigureKey) {
+  return INLINE_FIGURES.find(f => f.id === key)!
+}
+
+type Raw = { value: number | null, text?: string, withinRepeatability?: boolean | null }
+
+function singleFigure(key: InlineFigureKey, row: AnalysisRow): Raw {
+  switch (key) {
+    case 'peak-power': return { value: row.peakPower.value }
+    case 'peak-power-rpm': return { value: row.peakPower.rpm }
+    case 'peak-torque': return { value: row.peakTorque.value }
+    case 'peak-torque-rpm': return { value: row.peakTorque.rpm }
+    case 'average-power': return { value: row.averagePower }
+    case 'average-torque': return { value: row.averageTorque }
+    case 'power-band-width': return { value: row.powerBand.toRpm - row.powerBand.fromRpm }
+    case 'idle-vacuum': return { value: row.idleVacuumInHg }
+    default: return { value: null }
+  }
+}
+
+function pairFigure(key: InlineFigureKey, g: AnalysisGains): Raw {
+  const r = g.withinRepeatability
+  switch (key) {
+    case 'peak-power-gain': return { value: g.peakPower, withinRepeatability: r.peakPower }
+    case 'peak-power-gain-pct': return { value: g.peakPowerPct, withinRepeatability: r.peakPower }
+    case 'peak-torque-gain': return { value: g.peakTorque, withinRepeatability: r.peakTorque }
+    case 'peak-torque-gain-pct': return { value: g.peakTorquePct, withinRepeatability: r.peakTorque }
+    case 'average-power-gain': return { value: g.averagePower, withinRepeatability: r.averagePower }
+    case 'average-power-gain-pct': return { value: g.averagePowerPct, withinRepeatability: r.averagePower }
+    case 'average-torque-gain': return { value: g.averageTorque, withinRepeatability: r.averageTorque }
+    case 'average-torque-gain-pct': return { value: g.averageTorquePct, withinRepeatability: r.averageTorque }
+    case 'largest-power-gain': return { value: g.largestGain.power.value }
+    case 'largest-power-gain-rpm': return { value: g.largestGain.power.rpm }
+    case 'largest-torque-gain': return { value: g.largestGain.torque.value }
+    case 'largest-torque-gain-rpm': return { value: g.largestGain.torque.rpm }
+    case 'largest-torque-loss': return { value: Math.abs(g.largestLoss.torque.value) }
+    case 'torque-crossover-rpm': return g.crossovers.torqueRpm.length ? { value: g.crossovers.torqueRpm[0]! } : { value: null, text: 'no crossover' }
+    case 'power-crossover-rpm': return g.crossovers.powerRpm.length ? { value: g.crossovers.powerRpm[0]! } : { value: null, text: 'no crossover' }
+    case 'idle-vacuum-change': return { value: g.idleVacuumInHg }
+    default: return { value: null }
+  }
+}
+
+function missingFigure(key: InlineFigureKey, label: string, problem: string): InlineFigureValue {
+  return { text: '[no such figure]', value: null, unit: inlineFigureMeta(key).unit, label, withinRepeatability: null, problem }
+}
+
+/**
+ * The text of an inline value after reporting rounding, from the story's figures.
+ * The editor's preview and the reader's page both call this, so they cannot differ.
+ */
+export function inlineFigureValue(source: FigureSource, options: FigureValueOptions): InlineFigureValue {
+  const meta = inlineFigureMeta(options.of)
+  const decimals = options.decimals ?? DEFAULT_DECIMALS[meta.unit]
+  const setupLabel = (id: number) => source.analysis.setups.find(s => s.setupId === id)?.label
+  const name = setupLabel(options.setup)
+  if (source.analysis.units.power !== 'hp') return missingFigure(options.of, meta.label, 'Figures are given in hp and lb-ft.')
+  if (!name) return missingFigure(options.of, meta.label, `Setup ${options.setup} has no analysed pulls in this bench test.`)
+
+  let raw: Raw
+  let label: string = `${meta.label}, ${name}`
+  if (meta.pair) {
+    const vs = options.vs ?? source.analysis.baselineSetupId
+    const vsName = setupLabel(vs)
+    if (!vsName) return missingFigure(options.of, label, `Setup ${vs} has no analysed pulls in this bench test.`)
+    if (vs === options.setup) return missingFigure(options.of, label, 'A gain compares two different setups.')
+    label = `${meta.label}, ${name} vs ${vsName}`
+    const comparison = source.comparisons.find(c => c.setupId === options.setup && c.vsSetupId === vs)
+    if (!comparison) return missingFigure(options.of, label, `No comparison of setup ${options.setup} with setup ${vs}.`)
+    raw = pairFigure(options.of, comparison.gains)
+  }
+  else {
+    const row = source.analysis.table.rows.find(r => r.setupId === options.setup)
+    if (!row) return missingFigure(options.of, label, `Setup ${options.setup} is not in the results table.`)
+    if (options.of === 'power-band') {
+      const text = `${formatFigureNumber(row.powerBand.fromRpm, decimals)}-${withUnit(formatFigureNumber(row.powerBand.toRpm, decimals), 'rpm')}`
+      return { text, value: null, unit: 'rpm', label, withinRepeatability: null, problem: null }
+    }
+    raw = singleFigure(options.of, row)
+  }
+
+  const withinRepeatability = raw.withinRepeatability ?? null
+  if (raw.value === null || !Number.isFinite(raw.value)) {
+    if (raw.text) return { text: raw.text, value: null, unit: meta.unit, label, withinRepeatability, problem: null }
+    return missingFigure(options.of, label, meta.unit === 'inHg' ? 'No idle vacuum was measured for this setup.' : 'The data gives no such figure.')
+  }
+  const value = reportRound(raw.value, decimals)
+  // Brief: a gain smaller than the spread of repeat pulls is shown as within repeatability, not as a gain.
+  const text = withinRepeatability === true ? 'within repeatability' : withUnit(formatFigureNumber(raw.value, decimals), meta.unit)
+  return { text, value, unit: meta.unit, label, withinRepeatability, problem: null }
+}
