@@ -36,6 +36,8 @@ export function run(cmd: string, args: string[], opts: SpawnOptions & { input?: 
       if (code === 0) resolve(out)
       else reject(new Error(`${cmd} ${args.join(' ')} exited with ${code}\n${out}`))
     })
+    // A command that exits before reading its input must not crash us with EPIPE.
+    child.stdin?.on('error', () => {})
     child.stdin?.end(opts.input ?? '')
   })
 }
