@@ -33,6 +33,13 @@ export const OPERATOR_LINK_LIMITS = {
 
 export const MAX_PARTS_PER_SETUP = 20
 
+/**
+ * Grids of the analysis (common practice). A setup's curve is the mean of its pulls on
+ * a fine grid, and peaks, averages and the power band come from it; gains, crossovers
+ * and the spread between repeat pulls are judged at the trade's usual 100 rpm steps.
+ */
+export const ANALYSIS_GRID = { curveStepRpm: 10, compareStepRpm: 100 } as const
+
 // ---------- small shared schemas ----------
 
 export const IdSchema = z.coerce.number().int().positive()

@@ -1,0 +1,10 @@
+import { AnalysisQuery } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event) => {
+  const { user, params } = await requireWorkspace(event, BenchTestParams)
+  const query = await getValidatedQuery(event, zodParser(AnalysisQuery))
+  const db = useDb()
+  const benchTest = await findBenchTest(db, user, params.id)
+  const analysis = await runAnalysis(db, benchTest, query)
+  return sendCsvFile(event, `${benchTest.slug}-results-${analysis.standard}.csv`, analysisCsv(analysis))
+})

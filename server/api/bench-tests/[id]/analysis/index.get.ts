@@ -1,0 +1,8 @@
+import { AnalysisQuery, type AnalysisResponse } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event): Promise<AnalysisResponse> => {
+  const { user, params } = await requireWorkspace(event, BenchTestParams)
+  const query = await getValidatedQuery(event, zodParser(AnalysisQuery))
+  const db = useDb()
+  return runAnalysis(db, await findBenchTest(db, user, params.id), query)
+})

@@ -1,0 +1,10 @@
+import type { CorrectionStandard } from '#shared/dyno'
+import { AssignInboxBody, type CommitPullsResponse } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event): Promise<CommitPullsResponse> => {
+  const { user, params, benchTest } = await requireWorkspace(event, BenchTestParams)
+  const body = await readValidatedBody(event, zodParser(AssignInboxBody))
+  const ids = await assignInboxFiles(useDb(), user.id, params.id, benchTest.default_standard as CorrectionStandard, body)
+  setResponseStatus(event, 201)
+  return { pulls: await pullSummaries(useDb(), params.id, ids) }
+})

@@ -1,0 +1,7 @@
+import { InboxListQuery } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event) => {
+  const { params } = await requireWorkspace(event, BenchTestParams)
+  const { state } = await getValidatedQuery(event, zodParser(InboxListQuery))
+  return { files: await listInbox(useDb(), params.id, state) }
+})

@@ -1,0 +1,15 @@
+import { z } from 'zod'
+import { rolesAtLeast } from '#shared/types/roles'
+
+const Params = z.object({ id: z.coerce.number().int().positive() })
+
+// One photo per request (multipart, part "file"); the uploader sends several side by side.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const { id } = await getValidatedRouterParams(event, zodParser(Params))
+  const benchTest = await requireBenchTest(user, id)
+  const upload = await readPhotoUpload(event)
+  const result = await storeUploadedPhoto(user, benchTest.id, upload)
+  setResponseStatus(event, result.duplicate ? 200 : 201)
+  return result
+})

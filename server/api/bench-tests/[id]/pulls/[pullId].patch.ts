@@ -1,0 +1,7 @@
+import { UpdatePullBody } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event) => {
+  const { params } = await requireWorkspace(event, PullParams)
+  const body = await readValidatedBody(event, zodParser(UpdatePullBody))
+  return { pull: await updatePull(useDb(), params.id, params.pullId, body) }
+})

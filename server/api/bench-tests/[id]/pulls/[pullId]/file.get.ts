@@ -1,0 +1,6 @@
+// The original file exactly as uploaded.
+export default defineEventHandler(async (event) => {
+  const { params } = await requireWorkspace(event, PullParams)
+  const file = await getPullFile(useDb(), params.id, params.pullId)
+  return sendCsvFile(event, file.fileName, file.text)
+})

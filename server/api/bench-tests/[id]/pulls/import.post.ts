@@ -1,0 +1,10 @@
+import { CommitPullsBody, type CommitPullsResponse } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event): Promise<CommitPullsResponse> => {
+  const { user, params } = await requireWorkspace(event, BenchTestParams)
+  assertBodySize(event, MAX_IMPORT_BODY_BYTES)
+  const { files } = await readValidatedBody(event, zodParser(CommitPullsBody))
+  const ids = await importPulls(useDb(), params.id, files, { userId: user.id })
+  setResponseStatus(event, 201)
+  return { pulls: await pullSummaries(useDb(), params.id, ids) }
+})

@@ -1,0 +1,8 @@
+import { rolesAtLeast } from '#shared/types/roles'
+
+// Not requireWorkspace: the bench test is deleted, so it is looked up among the deleted ones.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const { id } = await getValidatedRouterParams(event, zodParser(BenchTestParams))
+  return { benchTest: await restoreBenchTest(useDb(), user, id) }
+})

@@ -1,0 +1,7 @@
+import { UpdateSetupBody } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event) => {
+  const { params } = await requireWorkspace(event, SetupParams)
+  const body = await readValidatedBody(event, zodParser(UpdateSetupBody))
+  return { setup: await updateSetup(useDb(), params.id, params.setupId, body) }
+})

@@ -1,0 +1,9 @@
+import { IdSchema } from '#shared/types/workspace'
+
+const Params = SetupParams.extend({ checkId: IdSchema })
+
+export default defineEventHandler(async (event) => {
+  const { params } = await requireWorkspace(event, Params)
+  await deleteIdleCheck(useDb(), params.id, params.setupId, params.checkId)
+  return { deleted: true }
+})

@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  const { params } = await requireWorkspace(event, SetupParams)
+  return { setup: await restoreSetup(useDb(), params.id, params.setupId) }
+})

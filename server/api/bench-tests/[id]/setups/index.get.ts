@@ -1,0 +1,9 @@
+import { z } from 'zod'
+
+const Query = z.object({ deleted: z.enum(['only']).optional() })
+
+export default defineEventHandler(async (event) => {
+  const { params } = await requireWorkspace(event, BenchTestParams)
+  const { deleted } = await getValidatedQuery(event, zodParser(Query))
+  return { setups: await listSetups(useDb(), params.id, { deleted: deleted === 'only' }) }
+})

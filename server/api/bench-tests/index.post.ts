@@ -1,0 +1,10 @@
+import { rolesAtLeast } from '#shared/types/roles'
+import { CreateBenchTestBody } from '#shared/types/workspace'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const body = await readValidatedBody(event, zodParser(CreateBenchTestBody))
+  const benchTest = await createBenchTest(useDb(), user.id, body)
+  setResponseStatus(event, 201)
+  return { benchTest }
+})

@@ -1,0 +1,7 @@
+import type { UploadLinkInfo } from '#shared/types/workspace'
+
+// Public: the link itself is the credential, and it reveals only the title and limits.
+export default defineEventHandler(async (event): Promise<UploadLinkInfo> => {
+  setResponseHeader(event, 'cache-control', 'no-store')
+  return uploadLinkInfo(useDb(), uploadToken(event))
+})

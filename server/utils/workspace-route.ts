@@ -1,0 +1,46 @@
+import type { H3Event } from 'h3'
+import { z, type ZodType } from 'zod'
+import { rolesAtLeast } from '#shared/types/roles'
+import type { CurrentUser } from '#shared/types/users'
+import { IdSchema } from '#shared/types/workspace'
+import type { BenchTestRecord } from './bench-access'
+
+export const BenchTestParams = z.object({ id: IdSchema })
+export const SetupParams = z.object({ id: IdSchema, setupId: IdSchema })
+export const PullParams = z.object({ id: IdSchema, pullId: IdSchema })
+
+/** Largest JSON body an import takes: 20 files of 5 MB, with room for JSON escaping. */
+export const MAX_IMPORT_BODY_BYTES = 60 * 1024 * 1024
+
+/**
+ * The start of every workspace route: a writer or above, valid route parameters, and
+ * the bench test reachable by this user (404 for another writer's).
+ */
+export async function requireWorkspace<T extends { id: number }>(event: H3Event, params: ZodType<T>): Promise<{ user: CurrentUser, params: T, benchTest: BenchTestRecord }> {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const parsed = await getValidatedRouterParams(event, zodParser(params))
+  const benchTest = await requireBenchTest(user, parsed.id)
+  return { user, params: parsed, benchTest }
+}
+
+/** 413 before reading a body whose declared size is over the limit. */
+export function assertBodySize(event: H3Event, maxBytes: number): void {
+  const length = Number(getRequestHeader(event, 'content-length') ?? 0)
+  if (length > maxBytes) {
+    throw createError({ statusCode: 413, statusMessage: 'Content Too Large', message: `The request is ${(length / 1024 / 1024).toFixed(1)} MB; at most ${(maxBytes / 1024 / 1024).toFixed(0)} MB are taken at once. Send fewer files per batch.` })
+  }
+}
+
+export function sendCsvFile(event: H3Event, fileName: string, text: string): string {
+  setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
+  setResponseHeader(event, 'content-disposition', `attachment; filename="${fileName.replace(/["\\\r\n]/g, '_')}"; filename*=UTF-8''${encodeURIComponent(fileName)}`)
+  setResponseHeader(event, 'x-content-type-options', 'nosniff')
+  return text
+}
+
+/** The token of an upload link from the route; anything that cannot be one is simply not found. */
+export function uploadToken(event: H3Event): string {
+  const token = getRouterParam(event, 'token') ?? ''
+  if (!/^[\w-]{32,100}$/.test(token)) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'This upload link does not exist. Ask the writer for a new one.' })
+  return token
+}
