@@ -33,6 +33,15 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   nitro: {
     experimental: { tasks: true },
+    // Photos are sized in worker threads by server/workers/photo-worker.mjs, which
+    // the bundle never imports: ship its packages and copy it beside the server.
+    externals: { traceInclude: ['jimp', '@jsquash/webp/decode.js'] },
+    hooks: {
+      async compiled(nitro) {
+        const { cp } = await import('node:fs/promises')
+        await cp(`${nitro.options.rootDir}/server/workers`, `${nitro.options.output.serverDir}/workers`, { recursive: true })
+      },
+    },
   },
   vite: { build: { sourcemap: false } },
   typescript: { strict: true },

@@ -1,0 +1,5 @@
+export default defineEventHandler(async (event) => {
+  await requireRole(event, 'admin')
+  resetRuntimeStats()
+  return runtimeStats()
+})

@@ -1,0 +1,10 @@
+import { z } from 'zod'
+import { rolesAtLeast } from '#shared/types/roles'
+
+const Params = z.object({ id: z.coerce.number().int().positive() })
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const { id } = await getValidatedRouterParams(event, zodParser(Params))
+  return { photo: await retryPhoto(user, id) }
+})

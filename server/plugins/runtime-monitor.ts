@@ -1,0 +1,4 @@
+export default defineNitroPlugin(() => {
+  if (import.meta.prerender) return
+  startRuntimeMonitor()
+})

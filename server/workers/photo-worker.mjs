@@ -1,0 +1,133 @@
+// Sizes one photo in a worker thread (see server/utils/photo-pool.ts): decode,
+// apply the camera's orientation, flatten transparency, make the web sizes as
+// JPEG. Runs one task, then the pool ends the thread so its memory goes back.
+//
+// Plain ESM on purpose: the build copies this file into .output/server/workers/
+// (nuxt.config.ts) and it imports jimp and @jsquash/webp from the traced
+// node_modules beside it. Nothing of the original's metadata survives: every
+// output is encoded from bare pixels.
+import { readFile } from 'node:fs/promises'
+import { createRequire } from 'node:module'
+import { parentPort, workerData } from 'node:worker_threads'
+import { Jimp } from 'jimp'
+
+const require = createRequire(import.meta.url)
+
+/** Raised for a file that will never decode: retrying cannot help. */
+class Unprocessable extends Error {}
+
+async function decodeWebp(bytes) {
+  const { default: decode, init } = await import('@jsquash/webp/decode.js')
+  // Emscripten would fetch() the wasm by URL, which Node cannot do for file: URLs.
+  const wasm = await readFile(require.resolve('@jsquash/webp/codec/dec/webp_dec.wasm'))
+  await init(await WebAssembly.compile(wasm))
+  const copy = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength)
+  const image = await decode(copy)
+  const data = Buffer.from(image.data.buffer, image.data.byteOffset, image.data.byteLength)
+  return { width: image.width, height: image.height, data }
+}
+
+async function decode(task) {
+  const bytes = Buffer.from(task.bytes)
+  try {
+    if (task.mime === 'image/webp') return { bitmap: await decodeWebp(bytes), oriented: false }
+    // jpeg-js refuses big frames unless allowed; 2 GB covers 50 MP (stack notes),
+    // and the 100 MP upload cap needs about twice that.
+    const megapixels = (task.width * task.height) / 1e6
+    const image = await Jimp.fromBuffer(bytes, { 'image/jpeg': { maxMemoryUsageInMB: megapixels > 50 ? 4096 : 2048 } })
+    // jimp 1.6 reads EXIF orientation of JPEGs itself and rotates on read, leaving
+    // Orientation = 1 behind; when its parser failed, the upload's reading is used.
+    const oriented = task.mime === 'image/jpeg' && image._exif?.tags?.Orientation === 1
+    return { bitmap: { width: image.bitmap.width, height: image.bitmap.height, data: image.bitmap.data }, oriented }
+  }
+  catch (error) {
+    throw new Unprocessable(`The image could not be decoded (${String(error?.message ?? error).slice(0, 200)}). Export it again as JPEG and upload that.`)
+  }
+}
+
+/** Pixel moves for EXIF orientations 2-8: for each target pixel, the source pixel. */
+function orient(bitmap, orientation) {
+  if (!(orientation >= 2 && orientation <= 8)) return bitmap
+  const { width: w, height: h } = bitmap
+  const swap = orientation >= 5
+  const nw = swap ? h : w
+  const nh = swap ? w : h
+  const aligned = bitmap.data.byteOffset % 4 === 0 ? bitmap.data : Buffer.from(bitmap.data)
+  const src = new Uint32Array(aligned.buffer, aligned.byteOffset, w * h)
+  const out = Buffer.alloc(w * h * 4)
+  const dst = new Uint32Array(out.buffer, out.byteOffset, w * h)
+  for (let y = 0; y < nh; y++) {
+    for (let x = 0; x < nw; x++) {
+      let sx, sy
+      switch (orientation) {
+        case 2: sx = w - x - 1; sy = y; break
+        case 3: sx = w - x - 1; sy = h - y - 1; break
+        case 4: sx = x; sy = h - y - 1; break
+        case 5: sx = y; sy = x; break
+        case 6: sx = y; sy = h - x - 1; break
+        case 7: sx = w - y - 1; sy = h - x - 1; break
+        default: sx = w - y - 1; sy = x
+      }
+      dst[y * nw + x] = src[sy * w + sx]
+    }
+  }
+  return { width: nw, height: nh, data: out }
+}
+
+/** JPEG has no transparency: transparent parts go onto white, as on a page. */
+function flattenOnWhite(bitmap) {
+  const d = bitmap.data
+  for (let i = 3; i < d.length; i += 4) {
+    const a = d[i]
+    if (a === 255) continue
+    const k = a / 255
+    d[i - 3] = Math.round(d[i - 3] * k + 255 * (1 - k))
+    d[i - 2] = Math.round(d[i - 2] * k + 255 * (1 - k))
+    d[i - 1] = Math.round(d[i - 1] * k + 255 * (1 - k))
+    d[i] = 255
+  }
+}
+
+/** The widths to make: the standard ones below the photo's width, and the photo's own width when it is smaller than the largest. */
+function targetWidths(width, widths) {
+  const below = widths.filter(w => w < width)
+  if (width <= Math.max(...widths)) below.push(width)
+  return [...new Set(below)].sort((a, b) => b - a)
+}
+
+function toArrayBuffer(buffer) {
+  return buffer.buffer.slice(buffer.byteOffset, buffer.byteOffset + buffer.byteLength)
+}
+
+async function sizePhoto(task) {
+  const decoded = await decode(task)
+  const bitmap = decoded.oriented ? decoded.bitmap : orient(decoded.bitmap, task.orientation)
+  if (task.mime !== 'image/jpeg') flattenOnWhite(bitmap)
+  const full = { width: bitmap.width, height: bitmap.height }
+  // Largest first, each from the one before: fewer pixels to read at every step.
+  const working = new Jimp(bitmap)
+  const variants = []
+  for (const width of targetWidths(full.width, task.widths)) {
+    const height = Math.max(1, Math.round((width * full.height) / full.width))
+    if (working.bitmap.width !== width) working.resize({ w: width, h: height })
+    // A fresh image from bare pixels: the decoder's EXIF and comments stay behind.
+    const bare = new Jimp({ width, height, data: working.bitmap.data })
+    const jpeg = await bare.getBuffer('image/jpeg', { quality: task.quality })
+    variants.push({ width, height, bytes: toArrayBuffer(jpeg) })
+  }
+  variants.reverse()
+  return { ...full, variants }
+}
+
+parentPort.once('message', async (task) => {
+  // Test-only faults (PULLSHEET_TEST_HOOKS=1): a worker that hangs mid-job or dies on its first try.
+  if (workerData?.fault === 'hang') return
+  if (workerData?.fault === 'exit-first-try' && task.attempt === 1) process.exit(70)
+  try {
+    const result = await sizePhoto(task)
+    parentPort.postMessage({ ok: true, result }, result.variants.map(v => v.bytes))
+  }
+  catch (error) {
+    parentPort.postMessage({ ok: false, permanent: error instanceof Unprocessable, message: String(error?.message ?? error) })
+  }
+})

@@ -1,0 +1,90 @@
+import { Worker } from 'node:worker_threads'
+import { describe, expect, it } from 'vitest'
+import { PHOTO_JPEG_QUALITY, PHOTO_WIDTHS } from '#shared/types/photos'
+import { carriesExif, withExif } from '../../support/exif'
+import { decode, makeJpeg, makePng, pixel, type Paint } from '../../support/photos'
+
+// The worker file itself, run in a worker thread the way server/utils/photo-pool.ts runs it.
+const WORKER = new URL('../../../server/workers/photo-worker.mjs', import.meta.url)
+
+interface Result { ok: boolean, message?: string, permanent?: boolean, result?: { width: number, height: number, variants: { width: number, height: number, bytes: ArrayBuffer }[] } }
+
+function size(bytes: Uint8Array, mime: string, width: number, height: number, orientation = 1): Promise<Result> {
+  return new Promise((resolve, reject) => {
+    const worker = new Worker(WORKER, { workerData: {} })
+    worker.once('message', (m: Result) => {
+      void worker.terminate()
+      resolve(m)
+    })
+    worker.once('error', reject)
+    const copy = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength)
+    worker.postMessage({ bytes: copy, mime, width, height, orientation, widths: PHOTO_WIDTHS, quality: PHOTO_JPEG_QUALITY, attempt: 1 }, [copy])
+  })
+}
+
+type Colour = 'red' | 'green' | 'blue' | 'yellow'
+const QUADRANTS: Record<Colour, [number, number, number]> = { red: [230, 20, 20], green: [20, 200, 20], blue: [20, 20, 230], yellow: [230, 230, 20] }
+/** Stored image: top-left red, top-right green, bottom-left blue, bottom-right yellow. */
+const quadrants = (w: number, h: number): Paint => (x, y) => QUADRANTS[y < h / 2 ? (x < w / 2 ? 'red' : 'green') : (x < w / 2 ? 'blue' : 'yellow')]
+
+function nearest([r, g, b]: [number, number, number]): Colour {
+  const distance = (c: [number, number, number]) => (c[0] - r) ** 2 + (c[1] - g) ** 2 + (c[2] - b) ** 2
+  return (Object.keys(QUADRANTS) as Colour[]).sort((a, z) => distance(QUADRANTS[a]) - distance(QUADRANTS[z]))[0]!
+}
+
+// EXIF 2.32 (CIPA DC-008), tag 0x0112: which stored corner is shown top-left, and
+// whether rows and columns swap (5-8). E.g. 6: "the 0th row is the visual
+// right-hand side, the 0th column the visual top" -> stored bottom-left shows top-left.
+const SHOWN_TOP_LEFT: Record<number, Colour> = { 1: 'red', 2: 'green', 3: 'yellow', 4: 'blue', 5: 'red', 6: 'blue', 7: 'yellow', 8: 'green' }
+
+describe('photo worker', () => {
+  it('makes the web sizes, never upscaling, with the right dimensions', async () => {
+    const jpeg = await makeJpeg(2600, 1300)
+    const answer = await size(jpeg, 'image/jpeg', 2600, 1300)
+    expect(answer.ok).toBe(true)
+    expect(answer.result!.variants.map(v => [v.width, v.height])).toEqual([[480, 240], [960, 480], [1600, 800], [2400, 1200]])
+    for (const v of answer.result!.variants) {
+      const image = await decode(new Uint8Array(v.bytes))
+      expect([image.width, image.height]).toEqual([v.width, v.height])
+    }
+    const small = await size(await makeJpeg(300, 200), 'image/jpeg', 300, 200)
+    expect(small.result!.variants.map(v => [v.width, v.height])).toEqual([[300, 200]])
+  }, 30_000)
+
+  it.each(Object.entries(SHOWN_TOP_LEFT))('JPEG orientation %s: turned and mirrored as EXIF says, no EXIF left', async (o, topLeft) => {
+    const orientation = Number(o)
+    const jpeg = withExif(await makeJpeg(64, 32, quadrants(64, 32)), { orientation, gps: { latitude: 44.25, longitude: -71.5 } })
+    const answer = await size(jpeg, 'image/jpeg', 64, 32, orientation)
+    const [out] = answer.result!.variants
+    const image = await decode(new Uint8Array(out!.bytes))
+    expect([image.width, image.height]).toEqual(orientation >= 5 ? [32, 64] : [64, 32])
+    expect(nearest(pixel(image, 3, 3))).toBe(topLeft)
+    expect(carriesExif(new Uint8Array(out!.bytes))).toBe(false)
+  })
+
+  it.each(Object.entries(SHOWN_TOP_LEFT))('PNG orientation %s (read at upload, applied by the worker)', async (o, topLeft) => {
+    const orientation = Number(o)
+    const answer = await size(await makePng(64, 32, quadrants(64, 32)), 'image/png', 64, 32, orientation)
+    const image = await decode(new Uint8Array(answer.result!.variants[0]!.bytes))
+    expect([image.width, image.height]).toEqual(orientation >= 5 ? [32, 64] : [64, 32])
+    expect(nearest(pixel(image, 3, 3))).toBe(topLeft)
+  })
+
+  it('puts transparent parts on white (JPEG has no transparency)', async () => {
+    const png = await makePng(40, 20, x => (x < 20 ? [0, 0, 0, 0] : [20, 20, 230, 255]))
+    const answer = await size(png, 'image/png', 40, 20)
+    const image = await decode(new Uint8Array(answer.result!.variants[0]!.bytes))
+    expect(pixel(image, 5, 10).every(c => c > 245)).toBe(true)
+    expect(nearest(pixel(image, 35, 10))).toBe('blue')
+  })
+
+  it('gives up for good on a file whose header is fine but whose data does not decode', async () => {
+    const png = Buffer.from(await makePng(50, 50))
+    const idat = png.indexOf('IDAT')
+    png.fill(0x55, idat + 8, idat + 40) // damages the compressed data; the structure stays whole
+    const answer = await size(png, 'image/png', 50, 50)
+    expect(answer.ok).toBe(false)
+    expect(answer.permanent).toBe(true)
+    expect(answer.message).toMatch(/could not be decoded/)
+  })
+})
