@@ -35,6 +35,13 @@ export const LOCK_EXPIRES_SECONDS = 90
 
 export const PREVIEW_LINK_LIMITS = { minHours: 1, maxHours: 30 * 24, defaultHours: 7 * 24 } as const
 
+/** Pages of the app that e-mails and links point to. */
+export const STORY_PATHS = {
+  editor: (storyId: number) => `/stories/${storyId}`,
+  desk: () => '/desk',
+  preview: (token: string) => `/preview/${token}`,
+} as const
+
 // ---------- fields ----------
 
 const trimmed = (max: number, what: string) => z.string().trim().max(max, `Keep ${what} under ${max} characters`)

@@ -123,6 +123,7 @@ export const INLINE_FIGURES = [
   { id: 'largest-power-gain-rpm', label: 'Rpm of the largest power gain', unit: 'rpm', pair: true },
   { id: 'largest-torque-gain', label: 'Largest torque gain at one rpm', unit: 'lb-ft', pair: true },
   { id: 'largest-torque-gain-rpm', label: 'Rpm of the largest torque gain', unit: 'rpm', pair: true },
+  { id: 'largest-power-loss', label: 'Largest power loss at one rpm', unit: 'hp', pair: true },
   { id: 'largest-torque-loss', label: 'Largest torque loss at one rpm', unit: 'lb-ft', pair: true },
   { id: 'torque-crossover-rpm', label: 'Torque crossover rpm', unit: 'rpm', pair: true },
   { id: 'power-crossover-rpm', label: 'Power crossover rpm', unit: 'rpm', pair: true },
@@ -214,7 +215,9 @@ function pairFigure(key: InlineFigureKey, g: AnalysisGains): Raw {
     case 'largest-power-gain-rpm': return { value: g.largestGain.power.rpm }
     case 'largest-torque-gain': return { value: g.largestGain.torque.value }
     case 'largest-torque-gain-rpm': return { value: g.largestGain.torque.rpm }
-    case 'largest-torque-loss': return { value: Math.abs(g.largestLoss.torque.value) }
+    // The smallest gain is a loss only when it is below zero.
+    case 'largest-power-loss': return g.largestLoss.power.value < 0 ? { value: -g.largestLoss.power.value } : { value: null, text: 'no loss' }
+    case 'largest-torque-loss': return g.largestLoss.torque.value < 0 ? { value: -g.largestLoss.torque.value } : { value: null, text: 'no loss' }
     case 'torque-crossover-rpm': return g.crossovers.torqueRpm.length ? { value: g.crossovers.torqueRpm[0]! } : { value: null, text: 'no crossover' }
     case 'power-crossover-rpm': return g.crossovers.powerRpm.length ? { value: g.crossovers.powerRpm[0]! } : { value: null, text: 'no crossover' }
     case 'idle-vacuum-change': return { value: g.idleVacuumInHg }

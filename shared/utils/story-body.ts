@@ -159,6 +159,7 @@ export function bodySafetyIssues(body: string): BodyIssue[] {
     }
   })
   // Schemes may be split over lines or hidden in entities and control characters.
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what hides a scheme
   const squeezed = decodeEntities(body).replace(/[\s\u0000-\u001f\u007f-\u009f\u200b-\u200d\ufeff\\]+/g, '')
   if (SCRIPT_SCHEMES.test(squeezed)) {
     const line = lines.findIndex(l => /script|data:/i.test(decodeEntities(l))) + 1 || 1
