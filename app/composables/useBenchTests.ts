@@ -1,0 +1,35 @@
+import type { BenchTest, BenchTestSummary, CreateBenchTestInput } from '#shared/types/workspace'
+
+export const benchTestsKey = (deleted: boolean, q = '') => `bench-tests:${deleted ? 'deleted' : 'live'}:${q}`
+
+/** The bench tests the server lets this user see (writers their own, editors all). */
+export function useBenchTests(options: { deleted?: boolean, q?: Ref<string> } = {}) {
+  const q = options.q ?? ref('')
+  return useFetch<{ benchTests: BenchTestSummary[] }>('/api/bench-tests', {
+    key: computed(() => benchTestsKey(!!options.deleted, q.value.trim())),
+    query: computed(() => ({
+      ...(options.deleted ? { deleted: 'only' } : {}),
+      ...(q.value.trim() ? { q: q.value.trim() } : {}),
+    })),
+  })
+}
+
+export function refreshBenchTestLists() {
+  return refreshNuxtDataWhere(key => key.startsWith('bench-tests:'))
+}
+
+export function useBenchTestsActions() {
+  async function create(body: CreateBenchTestInput) {
+    const res = await $fetch<{ benchTest: BenchTest }>('/api/bench-tests', { method: 'POST', body })
+    await refreshBenchTestLists()
+    return res.benchTest
+  }
+
+  async function restore(id: number) {
+    const res = await $fetch<{ benchTest: BenchTest }>(benchTestPath(id, '/restore'), { method: 'POST' })
+    await refreshBenchTestLists()
+    return res.benchTest
+  }
+
+  return { create, restore }
+}
