@@ -11,5 +11,15 @@ export default defineContentConfig({
         description: z.string(),
       }),
     }),
+    // Pages for the desk only (served by app/pages/style-guide.vue behind the role check).
+    staff: defineCollection({
+      type: 'page',
+      source: 'staff/*.md',
+      schema: z.object({
+        title: z.string(),
+        description: z.string(),
+        audience: z.literal('staff'),
+      }),
+    }),
   },
 })

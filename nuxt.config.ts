@@ -16,6 +16,7 @@ export default defineNuxtConfig({
     '@fontsource/merriweather/700.css',
     '@fontsource/merriweather/900.css',
     '~/assets/css/main.css',
+    '~/assets/css/print.css',
   ],
   content: {
     // Inside .data so the built server can write it (the output folder may be read-only).

@@ -3,7 +3,7 @@
 // the full averaged curves; only the curves sent for drawing are thinned (LTTB).
 import type { Knex } from 'knex'
 import {
-  averagePulls, comparePulls, correctionFactor, correctionStandardInfo, downsampleForDisplay, hpToKw, lbFtToNm, peakOf, repeatSpread, resultsTable,
+  averagePulls, comparePulls, correctionFactor, correctionStandardInfo, downsampleForDisplay, hpToKw, lbFtToNm, repeatSpread, resample, resultsTable,
   type AtRpm, type CorrectionStandard, type PullPoint, type ResultsRow, type RowGains, type Weather,
 } from '../../shared/dyno/index'
 import {
@@ -29,9 +29,11 @@ export interface PullMeta {
   fileName: string
   weather: Weather | null
   dynoCorrected: boolean
+  /** Observed peak power of the pull's own samples. */
+  peakPower: AtRpm
 }
 
-interface PullMetaRow { id: number, setup_id: number, version: number, included: number, file_name: string, baro_inhg: number | null, air_temp_f: number | null, humidity_pct: number | null, dyno_corrected: number }
+interface PullMetaRow { id: number, setup_id: number, version: number, included: number, file_name: string, baro_inhg: number | null, air_temp_f: number | null, humidity_pct: number | null, dyno_corrected: number, peak_power_hp: number, peak_power_rpm: number }
 
 export function weatherOf(row: { baro_inhg: number | null, air_temp_f: number | null, humidity_pct: number | null }): Weather | null {
   if (row.baro_inhg === null || row.air_temp_f === null || row.humidity_pct === null) return null
@@ -42,34 +44,37 @@ export function weatherOf(row: { baro_inhg: number | null, air_temp_f: number | 
 export async function loadPullMeta(db: Db, setupIds: readonly number[]): Promise<PullMeta[]> {
   if (setupIds.length === 0) return []
   const rows = await db<PullMetaRow>('pulls').whereIn('setup_id', setupIds).orderBy('id')
-    .select('id', 'setup_id', 'version', 'included', 'file_name', 'baro_inhg', 'air_temp_f', 'humidity_pct', 'dyno_corrected')
+    .select('id', 'setup_id', 'version', 'included', 'file_name', 'baro_inhg', 'air_temp_f', 'humidity_pct', 'dyno_corrected', 'peak_power_hp', 'peak_power_rpm')
   const seen = new Map<number, number>()
   return rows.map((r) => {
     const number = (seen.get(r.setup_id) ?? 0) + 1
     seen.set(r.setup_id, number)
-    return { id: r.id, setupId: r.setup_id, number, version: r.version, included: asBool(r.included), fileName: r.file_name, weather: weatherOf(r), dynoCorrected: asBool(r.dyno_corrected) }
+    return { id: r.id, setupId: r.setup_id, number, version: r.version, included: asBool(r.included), fileName: r.file_name, weather: weatherOf(r), dynoCorrected: asBool(r.dyno_corrected), peakPower: { value: Number(r.peak_power_hp), rpm: Number(r.peak_power_rpm) } }
   })
 }
 
-// Points of a pull never change after import, so the pull id alone is the key.
-// Bounded by points held (about 80 bytes each): some 120 MB at most.
-const pointCache = new LruCache<PullPoint[]>(1_500_000, points => points.length + 1)
+// Points of a pull never change after import, so the pull id alone is the key. What
+// is kept is the pull on the analysis grid (resample at 10 rpm multiples): every figure
+// is computed on that grid anyway, resampling it again at the same or coarser multiples
+// gives the very same values, and a 20,000-row pull shrinks to a few hundred points.
+// Bounded by points held (about 80 bytes each).
+const gridCache = new LruCache<PullPoint[]>(1_000_000, points => points.length + 1)
 
-/** Observed points of pulls, from the cache or the database. */
-export async function loadPoints(db: Db, ids: readonly number[]): Promise<Map<number, PullPoint[]>> {
+/** Observed points of pulls on the analysis grid, from the cache or the database. */
+export async function loadGridPoints(db: Db, ids: readonly number[]): Promise<Map<number, PullPoint[]>> {
   const out = new Map<number, PullPoint[]>()
   const wanted: number[] = []
   for (const id of ids) {
-    const hit = pointCache.get(String(id))
+    const hit = gridCache.get(String(id))
     if (hit) out.set(id, hit)
     else wanted.push(id)
   }
   if (wanted.length) {
     const rows = await db('pulls').whereIn('id', wanted).select('id', 'points') as { id: number, points: string }[]
     for (const row of rows) {
-      const points = decodePoints(row.points)
-      pointCache.set(String(row.id), points)
-      out.set(row.id, points)
+      const grid = resample(decodePoints(row.points), ANALYSIS_GRID.curveStepRpm)
+      gridCache.set(String(row.id), grid)
+      out.set(row.id, grid)
     }
   }
   return out
@@ -166,9 +171,10 @@ async function liveSetups(db: Db, benchTestId: number): Promise<LiveSetup[]> {
 // Keyed by every version the answer depends on; bounded by entries.
 const analysisCache = new LruCache<AnalysisResponse>(200)
 
-export function clearAnalysisCaches(): void {
+/** For benchmarks and tests: forget computed answers, and the decoded points too unless told otherwise. */
+export function clearAnalysisCaches(opts: { points?: boolean } = {}): void {
   analysisCache.clear()
-  pointCache.clear()
+  if (opts.points !== false) gridCache.clear()
 }
 
 export async function runAnalysis(db: Db, benchTest: BenchTest, query: AnalysisQueryInput): Promise<AnalysisResponse> {
@@ -195,7 +201,7 @@ export async function runAnalysis(db: Db, benchTest: BenchTest, query: AnalysisQ
   const cached = analysisCache.get(key)
   if (cached) return cached
 
-  const points = await loadPoints(db, included.map(m => m.id))
+  const points = await loadGridPoints(db, included.map(m => m.id))
   const scale = unitScale(unitsId)
   const curves = new Map<number, SetupCurve>()
   const setups: AnalysisSetup[] = ordered.map((s) => {
@@ -218,7 +224,7 @@ export async function runAnalysis(db: Db, benchTest: BenchTest, query: AnalysisQ
       isBaseline: s === baseline,
       pulls: pulls.map((m, i) => ({
         pullId: m.id, number: m.number, fileName: m.fileName, weather: m.weather, dynoCorrected: m.dynoCorrected, factor: factors[i]!,
-        peakPower: at(peakOf(corrected[i]!, 'powerHp'), scale.power),
+        peakPower: at(m.peakPower, factors[i]! * scale.power),
       })),
       spreadPct: curve.spreadPct ?? null,
       outlierPullId: outlier,

@@ -4,7 +4,7 @@
 import type { Knex } from 'knex'
 import { REPEATABILITY_PCT, assertWeather, type CorrectionStandard, type PowerUnit, type Problem, type TorqueUnit, type VacuumUnit } from '../../shared/dyno/index'
 import type { PullDetail, PullList, PullSummary, SetupRepeatability, UpdatePullInput } from '../../shared/types/workspace'
-import { loadPoints, pullFactor, scalePoints, setupCurve, weatherOf, loadPullMeta } from './analysis'
+import { loadGridPoints, pullFactor, scalePoints, setupCurve, weatherOf, loadPullMeta } from './analysis'
 import { decodePoints } from './pull-points'
 import { httpError, invalidField, missing, staleVersion } from './workspace-http'
 import { asBool, isoTimeRequired, parseJsonColumn } from './workspace-rows'
@@ -129,7 +129,7 @@ export async function getPullFile(db: Db, benchTestId: number, pullId: number): 
 /** Spread and outlier of each setup's included pulls, corrected to the given standard. */
 export async function repeatabilityBySetup(db: Db, setupIds: readonly number[], standard: CorrectionStandard): Promise<SetupRepeatability[]> {
   const metas = (await loadPullMeta(db, setupIds)).filter(m => m.included)
-  const points = await loadPoints(db, metas.map(m => m.id))
+  const points = await loadGridPoints(db, metas.map(m => m.id))
   return setupIds.map((setupId) => {
     const pulls = metas.filter(m => m.setupId === setupId)
     const empty: SetupRepeatability = { setupId, includedPulls: pulls.length, spreadPct: null, rpmOfLargestSpread: null, outlier: null, withinLimit: null, problem: null }

@@ -8,6 +8,9 @@ import { CORRECTION_STANDARD_IDS } from '../dyno/correction'
 import { COLUMN_ROLES, type ColumnRole } from '../dyno/csv'
 import type { AtRpm, CorrectionStandard, PowerUnit, Problem, RpmRange, TorqueUnit, VacuumUnit, Weather } from '../dyno/types'
 
+// The dyno shapes these DTOs are made of, for code that reads them.
+export type { AtRpm, CorrectionStandard, Problem, RpmRange, Weather }
+
 // ---------- limits (the server enforces them; forms show them) ----------
 
 export const PULL_LIMITS = {

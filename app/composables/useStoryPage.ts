@@ -1,0 +1,36 @@
+import type { MagazineStoryResponse } from '#shared/types/magazine'
+import type { AnalysisResponse, AnalysisUnits } from '#shared/types/workspace'
+import type { CorrectionStandard } from '#shared/dyno'
+
+export const storyPageKey = (slug: string) => `magazine:story:${slug}`
+export const storyAnalysisKey = (slug: string, standard: string, units: string) => `magazine:story-analysis:${slug}:${standard}:${units}`
+
+export const storyApiPath = (slug: string, sub = '') => `/api/magazine/stories/${encodeURIComponent(slug)}${sub}`
+
+/** The published story (or the desk's preview of it) as the reader's page shows it. */
+export function useStoryPage(slug: MaybeRefOrGetter<string>) {
+  // Signed-in desk users may see an unpublished story: send their cookie during SSR.
+  // (Typed by hand: inferring the route type of a built path exhausts the compiler.)
+  const requestFetch = useRequestFetch() as (path: string) => Promise<unknown>
+  return useAsyncData<MagazineStoryResponse>(
+    () => storyPageKey(toValue(slug)),
+    () => requestFetch(storyApiPath(toValue(slug))) as Promise<MagazineStoryResponse>,
+  )
+}
+
+/**
+ * The story's results in the reader's correction standard and units. Not fetched
+ * while the reader keeps the story's own settings: the page already has those.
+ */
+export function useStoryAnalysis(slug: MaybeRefOrGetter<string>, choice: MaybeRefOrGetter<{ standard: CorrectionStandard, units: AnalysisUnits }>) {
+  return useAsyncData<AnalysisResponse>(
+    () => storyAnalysisKey(toValue(slug), toValue(choice).standard, toValue(choice).units),
+    () => $fetch<AnalysisResponse>(storyApiPath(toValue(slug), '/analysis'), { query: toValue(choice) }),
+    { watch: [() => toValue(choice)], server: false, immediate: false },
+  )
+}
+
+/** The CSV of the results table with the reader's settings. */
+export function storyDataUrl(slug: string, choice: { standard: CorrectionStandard, units: AnalysisUnits }): string {
+  return `${storyApiPath(slug, '/data.csv')}?${new URLSearchParams(choice).toString()}`
+}

@@ -1,0 +1,2 @@
+// The front page: the featured story, the latest, and what there is to browse.
+export default defineEventHandler(() => magazineHome())

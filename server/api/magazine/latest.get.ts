@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  const { page } = await getValidatedQuery(event, zodParser(MagazineListQuery))
+  return latestStories(page)
+})

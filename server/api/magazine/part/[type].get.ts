@@ -1,0 +1,5 @@
+export default defineEventHandler(async (event) => {
+  const { type } = await getValidatedRouterParams(event, zodParser(MagazinePartParams))
+  const { page } = await getValidatedQuery(event, zodParser(MagazineListQuery))
+  return storiesByPartType(type, page)
+})

@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  const { q, page } = await getValidatedQuery(event, zodParser(MagazineSearchQuery))
+  return { q, ...await searchStories(q, page) }
+})

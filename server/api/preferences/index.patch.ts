@@ -1,0 +1,8 @@
+import { rolesAtLeast } from '#shared/types/roles'
+import { ReaderPreferencesBody } from '#shared/types/magazine'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...rolesAtLeast('reader'))
+  const body = await readValidatedBody(event, zodParser(ReaderPreferencesBody))
+  return { preferences: await saveReaderPreferences(user.id, body) }
+})
