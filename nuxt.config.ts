@@ -1,4 +1,6 @@
 // https://nuxt.com/docs/api/configuration/nuxt-config
+import { fileURLToPath } from 'node:url'
+
 export default defineNuxtConfig({
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/content', '@nuxt/eslint'],
   devtools: { enabled: false },
@@ -36,7 +38,7 @@ export default defineNuxtConfig({
     experimental: { tasks: true },
     // Photos are sized in worker threads by server/workers/photo-worker.mjs, which
     // the bundle never imports: ship its packages and copy it beside the server.
-    externals: { traceInclude: ['jimp', '@jsquash/webp/decode.js'] },
+    externals: { traceInclude: [fileURLToPath(new URL('./server/workers/photo-worker.mjs', import.meta.url))] },
     hooks: {
       async compiled(nitro) {
         const { cp } = await import('node:fs/promises')

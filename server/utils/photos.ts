@@ -62,7 +62,7 @@ const galleryOrder = (q: Knex.QueryBuilder) => q.orderBy('photos.position').orde
 export async function listPhotos(user: CurrentUser, benchTestId: number): Promise<PhotoGallery> {
   const benchTest = await requireBenchTest(user, benchTestId)
   const rows = await galleryOrder(useDb()('photos').where('bench_test_id', benchTest.id)) as PhotoRecord[]
-  return { benchTest: { id: benchTest.id, title: benchTest.title }, photos: rows.map(toPhoto) }
+  return { benchTest: { id: benchTest.id, title: benchTest.title }, photos: rows.map(toPhoto), missingAltText: await photosMissingAltText(benchTest.id) }
 }
 
 function findSameFile(benchTestId: number, sha256: string): Promise<PhotoRecord | undefined> {
@@ -94,6 +94,8 @@ export async function storeUploadedPhoto(user: CurrentUser, benchTestId: number,
   await putPhotoObject(originalKey, upload.bytes, inspected.mime)
   try {
     const id = await useDb().transaction(async (trx) => {
+      // Uploads side by side into one bench test take their places one after the other.
+      await trx('bench_tests').where({ id: benchTestId }).forUpdate().first('id')
       const last = await trx('photos').where('bench_test_id', benchTestId).max({ position: 'position' }).first()
       const [id] = await trx('photos').insert({
         bench_test_id: benchTestId,
@@ -107,6 +109,7 @@ export async function storeUploadedPhoto(user: CurrentUser, benchTestId: number,
         width: inspected.width,
         height: inspected.height,
         orientation: inspected.orientation,
+        caption: '', // knex leaves out defaults of TEXT columns on MariaDB
         position: last?.position === null || last?.position === undefined ? 0 : Number(last.position) + 1,
         uploaded_by: user.id,
       })

@@ -67,6 +67,8 @@ export interface PhotoUploadResult {
 export interface PhotoGallery {
   benchTest: { id: number, title: string }
   photos: Photo[]
+  /** Alt text is required before a story can go to review. */
+  missingAltText: PhotoMissingAltText[]
 }
 
 export const CaptionSchema = z.string().trim().max(1000, 'Use at most 1000 characters')

@@ -2,8 +2,8 @@
 // writes WebP), plus helpers for the photo API and the bucket.
 import { readFileSync } from 'node:fs'
 import { createRequire } from 'node:module'
-import { ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3'
-import { Jimp } from 'jimp'
+import { DeleteObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3'
+import { Jimp, type JimpInstance } from 'jimp'
 import type { Photo } from '#shared/types/photos'
 import type { Client } from './http'
 import { testDb } from './db'
@@ -13,7 +13,7 @@ export type Paint = (x: number, y: number) => [number, number, number, number?]
 /** A smooth gradient with a little deterministic noise: compresses like a photo, not like a flat card. */
 export const gradient: Paint = (x, y) => [(x * 7 + ((x * y) % 13)) & 255, (y * 5 + ((x + y) % 11)) & 255, ((x ^ y) * 3) & 255]
 
-function bitmap(width: number, height: number, paint: Paint): Jimp {
+function bitmap(width: number, height: number, paint: Paint): JimpInstance {
   const image = new Jimp({ width, height })
   const d = image.bitmap.data
   for (let y = 0; y < height; y++) {
@@ -56,7 +56,7 @@ export async function decode(bytes: Uint8Array) {
   return Jimp.fromBuffer(Buffer.from(bytes))
 }
 
-export function pixel(image: Jimp, x: number, y: number): [number, number, number] {
+export function pixel(image: { bitmap: { width: number, data: Uint8Array } }, x: number, y: number): [number, number, number] {
   const i = (y * image.bitmap.width + x) * 4
   const d = image.bitmap.data
   return [d[i]!, d[i + 1]!, d[i + 2]!]
@@ -79,7 +79,7 @@ export async function userId(client: Client): Promise<number> {
 
 export async function uploadPhoto(client: Client, benchTestId: number, bytes: Uint8Array, filename = 'photo.jpg', type = 'image/jpeg') {
   const form = new FormData()
-  form.append('file', new Blob([bytes], { type }), filename)
+  form.append('file', new Blob([new Uint8Array(bytes)], { type }), filename)
   return client.request<{ photo: Photo, duplicate: boolean } & { message?: string }>('POST', `/api/bench-tests/${benchTestId}/photos`, { body: form })
 }
 
@@ -127,6 +127,11 @@ export async function bucketKeys(prefix: string): Promise<string[]> {
   return keys
 }
 
-export async function putStrayObject(key: string): Promise<void> {
-  await bucketClient().send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET ?? 'pullsheet', Key: key, Body: 'stray', ContentType: 'text/plain' }))
+/** Writes an object straight into the bucket, behind the app's back (for sweep and retry tests). */
+export async function replaceObject(key: string, body: Uint8Array | string, contentType = 'application/octet-stream'): Promise<void> {
+  await bucketClient().send(new PutObjectCommand({ Bucket: process.env.S3_BUCKET ?? 'pullsheet', Key: key, Body: body, ContentType: contentType }))
+}
+
+export async function deleteObject(key: string): Promise<void> {
+  await bucketClient().send(new DeleteObjectCommand({ Bucket: process.env.S3_BUCKET ?? 'pullsheet', Key: key }))
 }

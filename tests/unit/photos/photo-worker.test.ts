@@ -17,7 +17,7 @@ function size(bytes: Uint8Array, mime: string, width: number, height: number, or
       resolve(m)
     })
     worker.once('error', reject)
-    const copy = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength)
+    const copy = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer
     worker.postMessage({ bytes: copy, mime, width, height, orientation, widths: PHOTO_WIDTHS, quality: PHOTO_JPEG_QUALITY, attempt: 1 }, [copy])
   })
 }
