@@ -197,7 +197,9 @@ export async function runAnalysis(db: Db, benchTest: BenchTest, query: AnalysisQ
   const unitsId = query.units ?? 'hp-lbft'
   const maxPoints = query.maxPoints ?? DEFAULT_MAX_POINTS
 
-  const key = JSON.stringify([benchTest.id, benchTest.version, standard, unitsId, maxPoints, baseline.id, ordered, metas.map(m => [m.id, m.version, m.included, m.setupId])])
+  // Everything the answer depends on: the question, the chosen setups as they are now
+  // (label, version, order, baseline, idle vacuum) and every pull's version and inclusion.
+  const key = JSON.stringify([benchTest.id, benchTest.version, standard, unitsId, maxPoints, baseline.id, chosen, metas.map(m => [m.id, m.version, m.included, m.setupId])])
   const cached = analysisCache.get(key)
   if (cached) return cached
 

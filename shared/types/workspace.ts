@@ -622,7 +622,7 @@ export interface AnalysisPull {
   dynoCorrected: boolean
   /** Correction factor applied to this pull (1 for a pull the dyno already corrected, or for 'none'). */
   factor: number
-  /** Corrected peak power of the pull on its own. */
+  /** Peak power of the pull's own samples, corrected by its factor. */
   peakPower: AtRpm
 }
 
@@ -630,6 +630,7 @@ export interface AnalysisSetup {
   setupId: number
   label: string
   position: number
+  /** The setup this analysis takes gains against (baselineSetupId). */
   isBaseline: boolean
   pulls: AnalysisPull[]
   spreadPct: number | null
