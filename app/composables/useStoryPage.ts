@@ -1,4 +1,5 @@
 import type { MagazineStoryResponse } from '#shared/types/magazine'
+import type { StoryFigures } from '#shared/types/stories'
 import type { AnalysisResponse, AnalysisUnits } from '#shared/types/workspace'
 import type { CorrectionStandard } from '#shared/dyno'
 
@@ -33,4 +34,24 @@ export function useStoryAnalysis(slug: MaybeRefOrGetter<string>, choice: MaybeRe
 /** The CSV of the results table with the reader's settings. */
 export function storyDataUrl(slug: string, choice: { standard: CorrectionStandard, units: AnalysisUnits }): string {
   return `${storyApiPath(slug, '/data.csv')}?${new URLSearchParams(choice).toString()}`
+}
+
+export const storyFiguresKey = (slug: string, standard: string) => `magazine:story-figures:${slug}:${standard}`
+
+/** The story's figures in another correction standard; the page has its own standard's already. */
+export function useReaderFigures(slug: MaybeRefOrGetter<string>, standard: MaybeRefOrGetter<CorrectionStandard | null>) {
+  return useAsyncData<Pick<StoryFigures, 'analysis' | 'analysisProblem' | 'comparisons'> | null>(
+    () => storyFiguresKey(toValue(slug), toValue(standard) ?? 'own'),
+    () => {
+      const chosen = toValue(standard)
+      const get = $fetch as (path: string, opts: { query: Record<string, string> }) => Promise<unknown>
+      return chosen ? get(storyApiPath(toValue(slug), '/figures'), { query: { standard: chosen } }) as Promise<Pick<StoryFigures, 'analysis' | 'analysisProblem' | 'comparisons'>> : Promise.resolve(null)
+    },
+    { watch: [() => toValue(standard)], server: false },
+  )
+}
+
+/** True when every pull of the analysis carries weather the site can correct with. */
+export function correctable(analysis: AnalysisResponse | null | undefined): boolean {
+  return !!analysis && analysis.setups.every(s => s.pulls.every(p => p.weather !== null && !p.dynoCorrected))
 }

@@ -1,7 +1,7 @@
 // Serves anonymous readers from the page cache (server/utils/page-cache.ts); on a
 // miss it marks the request so server/plugins/page-cache.ts keeps the answer.
 export default defineEventHandler((event) => {
-  const target = pageCacheKey(event)
+  const target = pageCacheKeyFor(event.method, event.path, getRequestHeader(event, 'cookie') ?? '')
   if (!target) return
   const hit = cachedPage(target.key)
   if (!hit) {

@@ -85,6 +85,12 @@ function comparisonsOf(analysis: AnalysisResponse | null): FigureComparison[] {
   return out
 }
 
+/** The figures' numbers in another correction standard (hp and lb-ft, which inline values need). */
+export async function readerFigures(story: ReaderStory, standard: ReaderAnalysisInput['standard'], db: Knex = useDb()): Promise<Pick<StoryReaderView['figures'], 'analysis' | 'analysisProblem' | 'comparisons'>> {
+  const { analysis, problem } = await readerAnalysis(story, { units: ANALYSIS_UNITS[0].id, ...(standard ? { standard } : {}) }, db)
+  return { analysis, analysisProblem: problem, comparisons: comparisonsOf(analysis) }
+}
+
 export async function readerView(story: ReaderStory, db: Knex = useDb()): Promise<MagazineStoryResponse> {
   const { row } = story
   const benchRow = await benchTestOf(db, row.bench_test_id)

@@ -7,6 +7,7 @@ import { ENGINE_FAMILIES, EngineFamilySchema, PART_TYPES, PartTypeSchema, labelO
 import { TagSchema, type StoryPhoto } from '#shared/types/stories'
 import type { MagazineHome, MagazinePage, MagazineStoryCard } from '#shared/types/magazine'
 import type { PhotoRecord } from './photo-access'
+import { fullTextTerms } from './magazine-search-terms'
 
 export const MAGAZINE_PAGE_SIZE = 12
 
@@ -145,15 +146,6 @@ export function storiesByTag(tag: string, page: number, db: Knex = useDb()): Pro
   return pageOf(db, publicStories(db).whereExists(
     db('story_tags').whereRaw('story_tags.story_id = stories.id').where('story_tags.tag', tag),
   ), page)
-}
-
-/**
- * FULLTEXT in boolean mode, every word required and matched as a prefix ("carb"
- * finds "carburetor"). Operators typed by the reader are stripped so they cannot
- * change the query's meaning; best match first, then newest.
- */
-export function fullTextTerms(q: string): string {
-  return q.split(/[^\p{L}\p{N}]+/u).filter(w => w.length >= 2).slice(0, 12).map(w => `+${w}*`).join(' ')
 }
 
 export async function searchStories(q: string, page: number, db: Knex = useDb()): Promise<MagazinePage> {

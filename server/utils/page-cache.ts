@@ -4,8 +4,6 @@
 // and signed-in views never enter. Each app server keeps its own; they all drop
 // it when the stories table changes (server/plugins/page-cache.ts polls for that),
 // so publish, withdraw and edit reach every server within a few seconds.
-import type { H3Event } from 'h3'
-
 export interface CachedPage {
   body: Buffer
   status: number
@@ -16,7 +14,6 @@ export interface CachedPage {
 }
 
 export const PAGE_CACHE_TTL_MS = 10 * 60 * 1000
-const SESSION_COOKIE = 'pullsheet-session'
 const KEPT_HEADERS = ['content-type', 'content-security-policy', 'cache-control', 'content-disposition', 'x-robots-tag']
 
 const MAX_BYTES = 64 * 1024 * 1024
@@ -43,16 +40,15 @@ const ELIGIBLE: { pattern: RegExp, slug?: number }[] = [
   { pattern: /^\/api\/magazine\/(home|latest|search|engine\/[^/]+|part\/[^/]+|tags\/[^/]+)$/ },
 ]
 
-function hasSession(event: H3Event): boolean {
-  const cookie = getRequestHeader(event, 'cookie') ?? ''
-  return cookie.split(';').some(part => part.trim().startsWith(`${SESSION_COOKIE}=`))
+function hasSession(cookie: string): boolean {
+  return cookie.split(';').some(part => /^\s*pullsheet-session=[^;\s]/.test(part))
 }
 
 /** The cache key of a request that may be served from the cache, or null. */
-export function pageCacheKey(event: H3Event): { key: string, slug: string | null } | null {
-  if (event.method !== 'GET' && event.method !== 'HEAD') return null
-  if (hasSession(event)) return null
-  const url = new URL(event.path, 'http://x')
+export function pageCacheKeyFor(method: string, path: string, cookie: string): { key: string, slug: string | null } | null {
+  if (method !== 'GET' && method !== 'HEAD') return null
+  if (hasSession(cookie)) return null
+  const url = new URL(path, 'http://x')
   // Nuxt's payload and internal routes, preview links and anything else are not ours to keep.
   for (const rule of ELIGIBLE) {
     const m = rule.pattern.exec(url.pathname)

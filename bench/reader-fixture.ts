@@ -1,0 +1,54 @@
+// The running test-profile app with one published story that has three graphs,
+// shared by the reader benchmarks. Synthetic pulls (invented data).
+import { rmSync } from 'node:fs'
+import { startApp } from '../scripts/lib/app'
+import { buildIfNeeded } from '../scripts/lib/build'
+import { migrate, seed } from '../scripts/lib/database'
+import { localEnv, serverEnv } from '../scripts/lib/env'
+import { killGroup } from '../scripts/lib/proc'
+import { startServices } from '../scripts/lib/services'
+import { Client, signedIn } from '../tests/support/http'
+import { expectOk } from '../tests/support/workspace'
+import { createStory, storyBench, transition } from '../tests/support/stories'
+
+export interface ReaderFixture { base: string, slug: string, readerCookie: string, stop: () => Promise<void> }
+
+export async function readerFixture(): Promise<ReaderFixture> {
+  const env = localEnv('test')
+  rmSync(env.dataDir, { recursive: true, force: true })
+  const testEnv = localEnv('test')
+  const settings = serverEnv(testEnv)
+  await buildIfNeeded()
+  const services = await startServices(testEnv)
+  await migrate(settings.DATABASE_URL!)
+  await seed(settings.DATABASE_URL!)
+  const app = await startApp(testEnv, { MAIL_POLL_MS: '300' })
+  const stop = async () => {
+    await killGroup(app)
+    await services.stop()
+  }
+  try {
+    process.env.TEST_BASE_URL = testEnv.app.baseUrl
+    const editor = await signedIn('editor@example.com')
+    const bench = await storyBench(editor)
+    const pair = `${bench.baselineId},${bench.camId}`
+    const body = [
+      'The long-duration cam moves the torque peak up the rev range (synthetic pulls, invented data).',
+      '', `::pull-graph{setups="${pair}" channel="power"}`, '::',
+      '', `::pull-graph{setups="${pair}" channel="torque"}`, '::',
+      '', `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`, '::',
+      '', '::results-table', '::',
+    ].join('\n')
+    const story = await createStory(editor, bench.benchTestId, { body, deck: 'Three graphs and a table, for the benchmark.' })
+    expectOk(await transition(editor, story.id, 'submit'))
+    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
+    expectOk(await transition(editor, story.id, 'approve'))
+    expectOk(await transition(editor, story.id, 'publish_now'))
+    const reader = await signedIn('reader@example.com')
+    return { base: new Client().base, slug: story.slug, readerCookie: reader.cookie, stop }
+  }
+  catch (e) {
+    await stop()
+    throw e
+  }
+}

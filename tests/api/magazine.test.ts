@@ -1,0 +1,242 @@
+// The reader's side: only published stories reach the public, a withdrawn one
+// answers 410, the story page is complete without script (SVG graph, data table),
+// the CSV matches the results, lists and search find what is published, feeds are
+// XML, anonymous pages come from the cache and signed-in views never do.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { XMLParser, XMLValidator } from 'fast-xml-parser'
+import { reportFixed } from '#shared/dyno'
+import { Client, signedIn } from '../support/http'
+import { closeTestDb, testDb } from '../support/db'
+import { DEMO, expectOk } from '../support/workspace'
+import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
+
+afterAll(closeTestDb)
+
+const word = `zorblat${Math.random().toString(36).slice(2, 8)}`
+const tag = `tag-${Math.random().toString(36).slice(2, 8)}`
+let bench: StoryBench
+let editor: Client
+const slugs = { published: '', draft: '', withdrawn: '' }
+
+async function publish(storyId: number) {
+  expectOk(await transition(editor, storyId, 'submit'))
+  expectOk(await editor.get(`/api/stories/${storyId}/number-check`))
+  expectOk(await transition(editor, storyId, 'approve'))
+  expectOk(await transition(editor, storyId, 'publish_now'))
+}
+
+beforeAll(async () => {
+  editor = await signedIn(DEMO.editor)
+  bench = await storyBench(editor)
+  const body = `${storyBody(bench)}\n\nThe ${word} intake was tested as well.\n\n::results-table\n::\n`
+  const published = await createStory(editor, bench.benchTestId, { body, tags: [tag], deck: 'A deck about a cam swap.' })
+  await publish(published.id)
+  const withdrawn = await createStory(editor, bench.benchTestId, { body: `${body}\nWithdrawn copy.`, tags: [tag] })
+  await publish(withdrawn.id)
+  expectOk(await transition(editor, withdrawn.id, 'withdraw', { note: 'Numbers were wrong.' }))
+  const draft = await createStory(editor, bench.benchTestId, { body: `${body}\nDraft copy.`, tags: [tag] })
+  Object.assign(slugs, { published: published.slug, withdrawn: withdrawn.slug, draft: draft.slug })
+}, 120_000)
+
+describe('who reaches a story', () => {
+  it('gives readers the published story with its figures', async () => {
+    const view = expectOk(await new Client().get(`/api/magazine/stories/${slugs.published}`))
+    expect(view.story.slug).toBe(slugs.published)
+    expect(view.preview).toBe(false)
+    expect(view.figures.analysis.table.rows.map((r: any) => r.setupId)).toEqual([bench.baselineId, bench.camId])
+    expect(view.canonicalUrl).toMatch(new RegExp(`/stories/${slugs.published}$`))
+  })
+
+  it('answers 404 for a draft and 410 for a withdrawn story, to readers and signed-in readers alike', async () => {
+    for (const client of [new Client(), await signedIn(DEMO.reader)]) {
+      expect((await client.get(`/api/magazine/stories/${slugs.draft}`)).status).toBe(404)
+      expect((await client.get(`/api/magazine/stories/${slugs.withdrawn}`)).status).toBe(410)
+      expect((await client.get(`/api/magazine/stories/${slugs.draft}/data.csv`)).status).toBe(404)
+      expect((await client.get(`/api/magazine/stories/${slugs.withdrawn}/analysis`)).status).toBe(410)
+    }
+    expect((await new Client().get('/api/magazine/stories/no-such-story-anywhere')).status).toBe(404)
+  })
+
+  it('shows the desk its own unpublished story as a preview that no cache keeps', async () => {
+    const res = await editor.get(`/api/magazine/stories/${slugs.draft}`)
+    expect(res.status).toBe(200)
+    expect(res.body.preview).toBe(true)
+    expect(res.headers.get('cache-control')).toBe('private, no-store')
+    expect(res.headers.get('x-page-cache')).toBeNull()
+  })
+
+  it('renders 404 and 410 pages for the draft and the withdrawn story', async () => {
+    expect((await fetch(`${new Client().base}/stories/${slugs.draft}`)).status).toBe(404)
+    expect((await fetch(`${new Client().base}/stories/${slugs.withdrawn}`)).status).toBe(410)
+  })
+})
+
+describe('the story page without script', () => {
+  it('carries the headline, an SVG graph, the results table and the reader furniture in its HTML', async () => {
+    const res = await fetch(`${new Client().base}/stories/${slugs.published}`)
+    expect(res.status).toBe(200)
+    const html = await res.text()
+    expect(html).toContain('data-testid="story-headline"')
+    expect(html).toMatch(/<svg[^>]*>[\s\S]*<path/)
+    expect(html).toContain('data-testid="results-table"')
+    expect(html).toContain('href="/how-we-test"')
+    expect(html).toContain('data-testid="download-data"')
+    expect(html).toMatch(/<link rel="canonical" href="[^"]*\/stories\//)
+    expect(html).toMatch(/<meta property="og:title" content="/)
+    expect(html).toContain('"@type":"Article"')
+    // The cautions callout (brief, "Cautions") is on every story page.
+    expect(html).toContain('Before you try this')
+  })
+})
+
+function parseCsv(text: string): string[][] {
+  const rows: string[][] = []
+  let row: string[] = []
+  let cell = ''
+  let quoted = false
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i]!
+    if (quoted) {
+      if (c === '"' && text[i + 1] === '"') { cell += '"'; i++ }
+      else if (c === '"') quoted = false
+      else cell += c
+    }
+    else if (c === '"') quoted = true
+    else if (c === ',') { row.push(cell); cell = '' }
+    else if (c === '\n' || c === '\r') {
+      if (c === '\r' && text[i + 1] === '\n') i++
+      row.push(cell); rows.push(row); row = []; cell = ''
+    }
+    else cell += c
+  }
+  if (cell || row.length) { row.push(cell); rows.push(row) }
+  return rows
+}
+
+describe('download the data', () => {
+  it('matches the results table, in the units and standard asked for', async () => {
+    for (const query of ['', '?units=kw-nm&standard=din-70020']) {
+      const analysis = expectOk(await new Client().get(`/api/magazine/stories/${slugs.published}/analysis${query}`))
+      const res = await fetch(`${new Client().base}/api/magazine/stories/${slugs.published}/data.csv${query}`)
+      expect(res.status).toBe(200)
+      expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
+      expect(res.headers.get('content-disposition')).toContain(`${slugs.published}-results.csv`)
+      const [header, ...rows] = parseCsv(await res.text())
+      expect(header![2]).toBe(`Peak power (${analysis.units.power})`)
+      expect(rows).toHaveLength(analysis.table.rows.length)
+      analysis.table.rows.forEach((r: any, i: number) => {
+        expect(rows[i]![0]).toBe(r.label)
+        expect(rows[i]![1]).toBe(analysis.standardLabel)
+        expect(Number(rows[i]![2])).toBe(Number(reportFixed(r.peakPower.value, 1)))
+        expect(Number(rows[i]![3])).toBe(Number(reportFixed(r.peakPower.rpm, 0)))
+        expect(Number(rows[i]![4])).toBe(Number(reportFixed(r.peakTorque.value, 1)))
+      })
+    }
+  })
+
+  it('defuses a setup label that a spreadsheet would run as a formula', async () => {
+    // OWASP "CSV Injection" (secondary): cells starting with = + - @ are prefixed so they stay text.
+    await testDb()('setups').where({ id: bench.camId }).update({ label: '=HYPERLINK("x")' })
+    try {
+      const res = await fetch(`${new Client().base}/api/magazine/stories/${slugs.published}/data.csv?units=kw-nm`)
+      const rows = parseCsv(await res.text())
+      expect(rows.map(r => r[0])).toContain('\'=HYPERLINK("x")')
+    }
+    finally {
+      await testDb()('setups').where({ id: bench.camId }).update({ label: 'Long-duration cam' })
+    }
+  })
+})
+
+describe('lists and search', () => {
+  const slugsOf = (page: any) => page.stories.map((s: any) => s.slug)
+
+  it('lists the published story by tag, engine family and part type, never the others', async () => {
+    const anon = new Client()
+    for (const path of [`/api/magazine/tags/${tag}`, '/api/magazine/engine/pushrod-v8', '/api/magazine/part/exhaust', '/api/magazine/latest']) {
+      const page = expectOk(await anon.get(path))
+      expect(slugsOf(page), path).toContain(slugs.published)
+      expect(slugsOf(page), path).not.toContain(slugs.draft)
+      expect(slugsOf(page), path).not.toContain(slugs.withdrawn)
+    }
+    expect(expectOk(await anon.get(`/api/magazine/tags/${tag}`)).total).toBe(1)
+    expect((await anon.get('/api/magazine/engine/rotary-nonsense')).status).toBe(400)
+  })
+
+  it('finds published stories by a word of the body, also by its start', async () => {
+    const anon = new Client()
+    const full = expectOk(await anon.get(`/api/magazine/search?q=${word}`))
+    expect(slugsOf(full)).toEqual([slugs.published])
+    const prefix = expectOk(await anon.get(`/api/magazine/search?q=${encodeURIComponent(`${word.slice(0, 9)} +-~(`)}`))
+    expect(slugsOf(prefix)).toEqual([slugs.published])
+    expect((await anon.get('/api/magazine/search?q=a')).status).toBe(400)
+  })
+
+  it('puts the newest published story on the home page', async () => {
+    const home = expectOk(await new Client().get('/api/magazine/home'))
+    const shown = [home.featured?.slug, ...home.latest.map((s: any) => s.slug)]
+    expect(shown).toContain(slugs.published)
+    expect(shown).not.toContain(slugs.draft)
+    expect(home.partTypes.find((p: any) => p.id === 'exhaust')?.count).toBeGreaterThan(0)
+  })
+})
+
+describe('feeds', () => {
+  it('serves RSS and a sitemap that parse as XML and list only published stories', async () => {
+    for (const path of ['/feed.xml', '/sitemap.xml']) {
+      const res = await fetch(`${new Client().base}${path}`)
+      expect(res.status).toBe(200)
+      expect(res.headers.get('content-type')).toMatch(/xml/)
+      const xml = await res.text()
+      expect(XMLValidator.validate(xml), path).toBe(true)
+      const doc = new XMLParser().parse(xml)
+      const links: string[] = path === '/feed.xml'
+        ? [doc.rss.channel.item].flat().map((i: any) => i.link)
+        : [doc.urlset.url].flat().map((u: any) => u.loc)
+      expect(links.some(l => l.endsWith(`/stories/${slugs.published}`)), path).toBe(true)
+      expect(links.some(l => l.endsWith(`/stories/${slugs.draft}`) || l.endsWith(`/stories/${slugs.withdrawn}`)), path).toBe(false)
+    }
+  })
+})
+
+describe('the page cache', () => {
+  it('serves anonymous readers from the cache and drops it when the story changes', async () => {
+    const url = `${new Client().base}/stories/${slugs.published}`
+    await fetch(url)
+    const hit = await fetch(url)
+    expect(hit.headers.get('x-page-cache')).toBe('hit')
+    expect(await hit.text()).toContain('data-testid="story-headline"')
+
+    const story = expectOk(await editor.get(`/api/stories/${(await testDb()('stories').where({ slug: slugs.published }).first('id')).id}`)).story
+    const headline = `Edited ${word}`
+    expectOk(await editor.patch(`/api/stories/${story.id}`, { version: story.version, headline }))
+    // Every app server polls the stories table every 2 s (server/plugins/page-cache.ts).
+    let html = ''
+    for (let i = 0; i < 20 && !html.includes(headline); i++) {
+      await new Promise(r => setTimeout(r, 500))
+      html = await (await fetch(url)).text()
+    }
+    expect(html).toContain(headline)
+  })
+
+  it('never caches what a signed-in user sees', async () => {
+    const reader = await signedIn(DEMO.reader)
+    const res = await reader.request('GET', `/stories/${slugs.published}`, { headers: { accept: 'text/html' } })
+    expect(res.status).toBe(200)
+    expect(res.headers.get('x-page-cache')).toBeNull()
+  })
+})
+
+describe('reader preferences', () => {
+  it('keeps units and standard for an account and refuses values that are not ours', async () => {
+    expect((await new Client().get('/api/preferences')).status).toBe(401)
+    const reader = await signedIn(DEMO.reader)
+    expectOk(await reader.patch('/api/preferences', { units: 'kw-nm', standard: 'din-70020' }))
+    expect(expectOk(await reader.get('/api/preferences')).preferences).toEqual({ units: 'kw-nm', standard: 'din-70020' })
+    expectOk(await reader.patch('/api/preferences', { units: null }))
+    expect(expectOk(await reader.get('/api/preferences')).preferences).toEqual({ units: null, standard: 'din-70020' })
+    const bad = await reader.patch('/api/preferences', { standard: 'made-up' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues[0].path).toBe('standard')
+  })
+})
