@@ -10,8 +10,6 @@ import type { FigureComparison, FigureUnit, InlineFigureKey } from './story-figu
 import type { AnalysisResponse, BuildSheet, Setup, StaleVersionData } from './workspace'
 import { bodySafetyIssues } from '../utils/story-body'
 
-export type { StaleVersionData }
-
 // ---------- limits and timing ----------
 
 export const STORY_LIMITS = {
@@ -37,7 +35,7 @@ export const PREVIEW_LINK_LIMITS = { minHours: 1, maxHours: 30 * 24, defaultHour
 
 /** Pages of the app that e-mails and links point to. */
 export const STORY_PATHS = {
-  editor: (storyId: number) => `/stories/${storyId}`,
+  editor: (storyId: number) => `/write/${storyId}`,
   desk: () => '/desk',
   preview: (token: string) => `/preview/${token}`,
 } as const

@@ -92,7 +92,7 @@ function pairValues(key: InlineFigureKey, g: AnalysisGains): { values: number[],
 }
 
 function rowCandidates(row: AnalysisRow): FigureCandidate[] {
-  const single = (key: InlineFigureKey, value: number | null, what = inlineFigureMeta(key).label): FigureCandidate[] =>
+  const single = (key: InlineFigureKey, value: number | null, what: string = inlineFigureMeta(key).label): FigureCandidate[] =>
     value === null || !Number.isFinite(value) ? [] : [{ key, label: `${what}, ${row.label}`, value, unit: inlineFigureMeta(key).unit, setupId: row.setupId, vsSetupId: null, withinRepeatability: null }]
   return [
     ...single('peak-power', row.peakPower.value),

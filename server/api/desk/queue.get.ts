@@ -1,0 +1,8 @@
+import { DeskQueueQuery, type DeskQueueResponse } from '#shared/types/stories'
+import { rolesAtLeast } from '#shared/types/roles'
+
+export default defineEventHandler(async (event): Promise<DeskQueueResponse> => {
+  const user = await requireRole(event, ...rolesAtLeast('editor'))
+  const { state = 'in_review' } = await getValidatedQuery(event, zodParser(DeskQueueQuery))
+  return { state, items: await deskQueue(user, state) }
+})

@@ -1,0 +1,8 @@
+import { MyStoriesQuery, type MyStoriesResponse } from '#shared/types/stories'
+import { rolesAtLeast } from '#shared/types/roles'
+
+export default defineEventHandler(async (event): Promise<MyStoriesResponse> => {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const { state } = await getValidatedQuery(event, zodParser(MyStoriesQuery))
+  return myStories(user, state)
+})

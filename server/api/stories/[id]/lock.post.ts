@@ -1,0 +1,7 @@
+import { LockBody, type LockResponse } from '#shared/types/stories'
+
+export default defineEventHandler(async (event): Promise<LockResponse> => {
+  const { user, params } = await requireStoryRoute(event)
+  const body = await readValidatedBody(event, zodParser(LockBody))
+  return takeStoryLock(user, params.id, body.takeOver)
+})

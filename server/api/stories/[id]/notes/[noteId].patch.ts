@@ -1,0 +1,7 @@
+import { UpdateNoteBody, type StoryNote } from '#shared/types/stories'
+
+export default defineEventHandler(async (event): Promise<{ note: StoryNote }> => {
+  const { user, params } = await requireStoryRoute(event, StoryNoteParams)
+  const body = await readValidatedBody(event, zodParser(UpdateNoteBody))
+  return { note: await updateNote(user, params.id, params.noteId, body) }
+})

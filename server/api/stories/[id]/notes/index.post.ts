@@ -1,0 +1,9 @@
+import { CreateNoteBody, type StoryNote } from '#shared/types/stories'
+
+export default defineEventHandler(async (event): Promise<{ note: StoryNote }> => {
+  const { user, params } = await requireStoryRoute(event)
+  const body = await readValidatedBody(event, zodParser(CreateNoteBody))
+  const note = await addNote(user, params.id, body)
+  setResponseStatus(event, 201)
+  return { note }
+})

@@ -1,0 +1,8 @@
+import type { NumberCheckResult } from '#shared/types/stories'
+
+// Not a pure read: an editor opening it records the check as seen for this version (the approve guard).
+export default defineEventHandler(async (event): Promise<NumberCheckResult> => {
+  const { user, params } = await requireStoryRoute(event)
+  setResponseHeader(event, 'Cache-Control', 'no-store')
+  return runNumberCheck(user, params.id)
+})

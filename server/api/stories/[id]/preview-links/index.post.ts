@@ -1,0 +1,9 @@
+import { CreatePreviewLinkBody, type CreatedPreviewLink } from '#shared/types/stories'
+
+export default defineEventHandler(async (event): Promise<CreatedPreviewLink> => {
+  const { user, params } = await requireStoryRoute(event)
+  const body = await readValidatedBody(event, zodParser(CreatePreviewLinkBody))
+  const created = await createPreviewLink(user, params.id, body)
+  setResponseStatus(event, 201)
+  return created
+})

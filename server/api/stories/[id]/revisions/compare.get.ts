@@ -1,0 +1,7 @@
+import { RevisionCompareQuery, type RevisionComparison } from '#shared/types/stories'
+
+export default defineEventHandler(async (event): Promise<RevisionComparison> => {
+  const { user, params } = await requireStoryRoute(event)
+  const query = await getValidatedQuery(event, zodParser(RevisionCompareQuery))
+  return compareRevisions(user, params.id, query.from, query.to)
+})

@@ -1,0 +1,7 @@
+import { TransitionBody, type TransitionResponse } from '#shared/types/stories'
+
+export default defineEventHandler(async (event): Promise<TransitionResponse> => {
+  const { user, params } = await requireStoryRoute(event)
+  const body = await readValidatedBody(event, zodParser(TransitionBody))
+  return runTransition(user, params.id, body)
+})

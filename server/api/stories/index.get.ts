@@ -1,0 +1,8 @@
+import { StoryListQuery, type StoryListResponse } from '#shared/types/stories'
+import { rolesAtLeast } from '#shared/types/roles'
+
+export default defineEventHandler(async (event): Promise<StoryListResponse> => {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const query = await getValidatedQuery(event, zodParser(StoryListQuery))
+  return { stories: await listStories(user, query) }
+})

@@ -1,0 +1,10 @@
+import { CreateStoryBody, type StoryResponse } from '#shared/types/stories'
+import { rolesAtLeast } from '#shared/types/roles'
+
+export default defineEventHandler(async (event): Promise<StoryResponse> => {
+  const user = await requireRole(event, ...rolesAtLeast('writer'))
+  const body = await readValidatedBody(event, zodParser(CreateStoryBody))
+  const story = await createStory(user, body)
+  setResponseStatus(event, 201)
+  return { story }
+})
