@@ -121,7 +121,10 @@ async function sizePhoto(task) {
 
 parentPort.once('message', async (task) => {
   // Test-only faults (PULLSHEET_TEST_HOOKS=1): a worker that hangs mid-job or dies on its first try.
-  if (workerData?.fault === 'hang') return
+  if (workerData?.fault === 'hang') {
+    setInterval(() => {}, 60_000) // keeps the thread alive, doing nothing, until it is killed
+    return
+  }
   if (workerData?.fault === 'exit-first-try' && task.attempt === 1) process.exit(70)
   try {
     const result = await sizePhoto(task)

@@ -1,0 +1,89 @@
+import type { ChildProcess } from 'node:child_process'
+import { afterAll, afterEach, describe, expect, it } from 'vitest'
+import { startApp } from '../../scripts/lib/app'
+import { localEnv } from '../../scripts/lib/env'
+import { killGroup } from '../../scripts/lib/proc'
+import { closeTestDb, testDb } from '../support/db'
+import { Client, DEMO_PASSWORD, signedIn } from '../support/http'
+import { createBenchTest, makeJpeg, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+
+// Servers of their own, on a queue of their own (PHOTO_QUEUE), so the main test
+// server never takes these jobs; a short lease so a dead server's job comes back fast.
+const started: ChildProcess[] = []
+afterEach(async () => {
+  while (started.length) await killGroup(started.pop()!, 'SIGKILL')
+})
+afterAll(closeTestDb)
+
+async function server(port: number, settings: Record<string, string>): Promise<{ child: ChildProcess, client: Client }> {
+  const extra = JSON.parse(process.env.TEST_SERVER_EXTRA ?? '{}') as Record<string, string>
+  const child = await startApp(localEnv('test'), { ...extra, PHOTO_JOB_LEASE_SECONDS: '2', PHOTO_POLL_MS: '200', PULLSHEET_TEST_HOOKS: '1', ...settings }, port)
+  started.push(child)
+  const client = new Client(`http://127.0.0.1:${port}`)
+  const login = await client.post('/api/auth/login', { email: 'writer@example.com', password: DEMO_PASSWORD })
+  expect(login.status).toBe(200)
+  return { child, client }
+}
+
+async function jobOf(kind: string, photoId: number) {
+  return testDb()('jobs').where({ kind }).whereRaw('JSON_VALUE(payload, \'$.photoId\') = ?', [photoId]).first()
+}
+
+async function until<T>(what: string, probe: () => Promise<T | undefined | false>, timeoutMs = 30_000): Promise<T> {
+  const end = Date.now() + timeoutMs
+  while (Date.now() < end) {
+    const value = await probe()
+    if (value) return value
+    await new Promise(r => setTimeout(r, 200))
+  }
+  throw new Error(`${what} did not happen within ${timeoutMs} ms`)
+}
+
+const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
+
+describe('a crash mid-job', () => {
+  it('a server killed while its worker sizes a photo: the lease runs out and another server finishes the job', async () => {
+    const queue = `crash-${Date.now().toString(36)}`
+    const kind = `photo.process:${queue}`
+    const desk = await signedIn('writer@example.com')
+    const bench = await createBenchTest(await userId(desk), 'Crash while sizing')
+
+    const doomed = await server(3021, { PHOTO_QUEUE: queue, PHOTO_TEST_FAULT: 'hang' })
+    const res = await uploadPhoto(doomed.client, bench, await makeJpeg(1000, 700), 'mid-job.jpg')
+    expect(res.status).toBe(201)
+    const photoId = res.body.photo.id
+    const running = await until('the job to be running', async () => {
+      const job = await jobOf(kind, photoId)
+      return job?.status === 'running' ? job : undefined
+    })
+    expect(running.attempts).toBe(1)
+    expect((await testDb()('photos').where({ id: photoId }).first()).status).toBe('processing')
+
+    // While the server lives, it renews its lease: a slow job is not taken away.
+    await sleep(3000)
+    const renewed = await jobOf(kind, photoId)
+    expect(renewed.status).toBe('running')
+    expect(new Date(renewed.lease_until).getTime()).toBeGreaterThan(new Date(running.lease_until).getTime())
+
+    await killGroup(doomed.child, 'SIGKILL')
+    await server(3022, { PHOTO_QUEUE: queue })
+    const ready = await waitForPhoto(desk, bench, photoId, p => p.status === 'ready', 40_000)
+    expect(ready.variants.map(v => v.width)).toEqual([480, 960, 1000])
+    expect(await jobOf(kind, photoId)).toMatchObject({ status: 'done', attempts: 2 })
+  }, 90_000)
+
+  it('a worker thread that dies mid-job: the job is tried again and succeeds', async () => {
+    const queue = `exit-${Date.now().toString(36)}`
+    const kind = `photo.process:${queue}`
+    const desk = await signedIn('writer@example.com')
+    const bench = await createBenchTest(await userId(desk), 'Worker dies')
+
+    const flaky = await server(3023, { PHOTO_QUEUE: queue, PHOTO_TEST_FAULT: 'exit-first-try', PHOTO_RETRY_DELAY_SECONDS: '1' })
+    const res = await uploadPhoto(flaky.client, bench, await makeJpeg(800, 500), 'worker-dies.jpg')
+    const ready = await waitForPhoto(desk, bench, res.body.photo.id, p => p.status === 'ready', 40_000)
+    expect(ready.variants.map(v => v.width)).toEqual([480, 800])
+    const job = await jobOf(kind, ready.id)
+    expect(job).toMatchObject({ status: 'done', attempts: 2 })
+    expect(job.last_error).toMatch(/stopped unexpectedly \(exit code 70\)/)
+  }, 90_000)
+})
