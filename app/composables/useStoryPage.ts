@@ -36,12 +36,12 @@ export function storyDataUrl(slug: string, choice: { standard: CorrectionStandar
   return `${storyApiPath(slug, '/data.csv')}?${new URLSearchParams(choice).toString()}`
 }
 
-export const storyFiguresKey = (slug: string, standard: string) => `magazine:story-figures:${slug}:${standard}`
+export const readerFiguresKey = (slug: string, standard: string) => `magazine:story-figures:${slug}:${standard}`
 
 /** The story's figures in another correction standard; the page has its own standard's already. */
 export function useReaderFigures(slug: MaybeRefOrGetter<string>, standard: MaybeRefOrGetter<CorrectionStandard | null>) {
   return useAsyncData<Pick<StoryFigures, 'analysis' | 'analysisProblem' | 'comparisons'> | null>(
-    () => storyFiguresKey(toValue(slug), toValue(standard) ?? 'own'),
+    () => readerFiguresKey(toValue(slug), toValue(standard) ?? 'own'),
     () => {
       const chosen = toValue(standard)
       const get = $fetch as (path: string, opts: { query: Record<string, string> }) => Promise<unknown>
