@@ -5,6 +5,9 @@
 //   1. import of one 20,000-row pull file: check (parse, data check) + store, in one transaction
 //   2. analysis of 6 setups x 3 pulls: cached (warm, same question), recomputed from
 //      cached points, and recomputed from the database
+// Then, unless BENCH_HTTP=0, the same two over HTTP against the built server on the test
+// profile (started here, port 3010; build it first with the test runner), signed in as a
+// writer: what a browser waits for, session check and JSON included.
 // Synthetic pulls (invented data). Its rows are deleted at the end.
 import os from 'node:os'
 import { syntheticPull } from '../shared/dyno/index'
@@ -15,6 +18,9 @@ import { checkPullBatch, importPulls, type PullToImport } from '../server/utils/
 import { migrate, scriptDb } from '../scripts/lib/database'
 import { localEnv, serverEnv } from '../scripts/lib/env'
 import { startServices, type RunningServices } from '../scripts/lib/services'
+import { startApp } from '../scripts/lib/app'
+import { killGroup } from '../scripts/lib/proc'
+import { Client } from '../tests/support/http'
 
 const RUNS_IMPORT = 7
 const RUNS_ANALYSIS = 200
@@ -28,10 +34,10 @@ const fmt = (x: { n: number, p50: number, p95: number, max: number }) => `p50 ${
 
 let services: RunningServices | undefined
 let url = process.env.DATABASE_URL
+const testEnv = localEnv('test')
 if (!url) {
-  const env = localEnv('test')
-  services = await startServices(env)
-  url = serverEnv(env).DATABASE_URL!
+  services = await startServices(testEnv)
+  url = serverEnv(testEnv).DATABASE_URL!
 }
 await migrate(url)
 const db = scriptDb(url)
@@ -108,6 +114,7 @@ try {
     `| same, recomputed from cached points | | ${fmt(heavy.fromCachedPoints)} |`,
     `| same, recomputed with points read from the database | | ${fmt(heavy.fromDatabase)} |`,
   ]
+  if (process.env.BENCH_HTTP !== '0' && !process.env.DATABASE_URL) lines.push(...await httpBench())
   console.log(lines.join('\n'))
 }
 finally {
@@ -119,4 +126,72 @@ finally {
   await db('users').where('email', 'like', 'bench-%@bench.example').delete()
   await db.destroy()
   await services?.stop()
+}
+
+/** The routes themselves, through the built server: import 20,000 rows, then the analysis. */
+async function httpBench(): Promise<string[]> {
+  const app = await startApp(testEnv, { PULLSHEET_WORKERS: '0' })
+  try {
+    const admin = new Client(testEnv.app.baseUrl)
+    const email = `bench-${Date.now()}-http@bench.example`
+    const password = 'bench-password-long'
+    // The demo admin exists in a seeded test database; it makes the bench writer.
+    const signIn = async (c: Client, e: string, pw: string) => {
+      const r = await c.post('/api/auth/login', { email: e, password: pw })
+      if (r.status !== 200) throw new Error(`sign-in as ${e} failed (${r.status}); seed the test database (run the test runner once)`)
+    }
+    await signIn(admin, 'admin@example.com', 'pullsheet-demo')
+    const made = await admin.post('/api/users', { email, displayName: 'Bench writer', role: 'writer', password })
+    if (made.status !== 201) throw new Error(`creating the bench writer failed: ${made.status}`)
+    const writer = new Client(testEnv.app.baseUrl)
+    await signIn(writer, email, password)
+    const post = async (path: string, body: unknown, status = 201) => {
+      const r = await writer.post(path, body)
+      if (r.status !== status) throw new Error(`${path}: ${r.status} ${JSON.stringify(r.body).slice(0, 300)}`)
+      return r.body
+    }
+    const model = { peakTorqueLbFt: 430, peakTorqueRpm: 4400, widthLowRpm: 2600, widthHighRpm: 1900 }
+
+    const importBt = (await post('/api/bench-tests', { title: 'Benchmark HTTP import (synthetic)', engineFamily: 'pushrod-v8', partType: 'exhaust' })).benchTest
+    created.push(importBt.id)
+    const importSetup = (await post(`/api/bench-tests/${importBt.id}/setups`, { label: 'Baseline' })).setup
+    const big = syntheticPull({ ...model, seed: 2, fromRpm: 2500, toRpm: 7000, samples: 20_000 })
+    const importMs: number[] = []
+    for (let i = 0; i < RUNS_IMPORT; i++) {
+      const t = performance.now()
+      await post(`/api/bench-tests/${importBt.id}/pulls/import`, { files: [{ name: 'big.csv', text: big.csv, setupId: importSetup.id, weather: big.weather }] })
+      importMs.push(performance.now() - t)
+    }
+
+    const bt = (await post('/api/bench-tests', { title: 'Benchmark HTTP analysis (synthetic)', engineFamily: 'pushrod-v8', partType: 'exhaust' })).benchTest
+    created.push(bt.id)
+    for (let s = 0; s < 6; s++) {
+      const setup = (await post(`/api/bench-tests/${bt.id}/setups`, { label: `Setup ${s + 1}` })).setup
+      const files = [1, 2, 3].map((n) => {
+        const pull = syntheticPull({ ...model, peakTorqueLbFt: model.peakTorqueLbFt + s * 4, seed: 300 + s * 10 + n, fromRpm: 2500, toRpm: 7000, samples: 451 })
+        return { name: `s${s}-p${n}.csv`, text: pull.csv, setupId: setup.id, weather: pull.weather }
+      })
+      await post(`/api/bench-tests/${bt.id}/pulls/import`, { files })
+    }
+    const get = async (query: string) => {
+      const t = performance.now()
+      const r = await writer.get(`/api/bench-tests/${bt.id}/analysis${query}`)
+      if (r.status !== 200) throw new Error(`analysis: ${r.status}`)
+      return performance.now() - t
+    }
+    for (let i = 0; i < 20; i++) await get('') // warm-up
+    const warm: number[] = []
+    for (let i = 0; i < RUNS_ANALYSIS; i++) warm.push(await get(''))
+    // A question not asked before (points cached, answer not): maxPoints differs each time.
+    const fresh: number[] = []
+    for (let i = 0; i < RUNS_ANALYSIS; i++) fresh.push(await get(`?maxPoints=${1000 + i}`))
+    return [
+      `| over HTTP: import of one 20,000-row file (POST .../pulls/import, ${(Buffer.byteLength(JSON.stringify(big.csv)) / 1024).toFixed(0)} KB of JSON) | under 1.5 s | median ${stats(importMs).p50.toFixed(0)} ms, max ${stats(importMs).max.toFixed(0)} ms (n = ${RUNS_IMPORT}) |`,
+      `| over HTTP: GET .../analysis, 6 setups x 3 pulls of 451 points, warm | p95 under 150 ms | ${fmt(stats(warm))} |`,
+      `| over HTTP: same, a new question each time (recomputed from cached points) | | ${fmt(stats(fresh))} |`,
+    ]
+  }
+  finally {
+    await killGroup(app)
+  }
 }
