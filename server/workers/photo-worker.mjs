@@ -1,6 +1,7 @@
-// Sizes one photo in a worker thread (see server/utils/photo-pool.ts): decode,
-// apply the camera's orientation, flatten transparency, make the web sizes as
-// JPEG. Runs one task, then the pool ends the thread so its memory goes back.
+// Sizes one photo (see server/utils/photo-pool.ts): decode, apply the camera's
+// orientation, flatten transparency, make the web sizes as JPEG. Runs one task
+// and ends. It runs as a short-lived child process (the default: its memory goes
+// back to the system when it exits) or as a worker thread (PHOTO_WORKER_MODE=thread).
 //
 // Plain ESM on purpose: the build copies this file into .output/server/workers/
 // (nuxt.config.ts) and it imports jimp and @jsquash/webp from the traced
@@ -119,18 +120,27 @@ async function sizePhoto(task) {
   return { ...full, variants }
 }
 
-parentPort.once('message', async (task) => {
+// The same messages either way: a worker thread's port, or a child's IPC channel.
+const channel = parentPort
+  ? { fault: workerData?.fault, receive: fn => parentPort.once('message', fn), send: (m, transfer) => parentPort.postMessage(m, transfer) }
+  : { fault: process.env.PHOTO_WORKER_FAULT, receive: fn => process.once('message', fn), send: m => process.send(m) }
+// A child whose server died stops too, instead of lingering with a photo half done.
+if (!parentPort) process.once('disconnect', () => process.exit(0))
+
+channel.receive(async (task) => {
   // Test-only faults (PULLSHEET_TEST_HOOKS=1): a worker that hangs mid-job or dies on its first try.
-  if (workerData?.fault === 'hang') {
-    setInterval(() => {}, 60_000) // keeps the thread alive, doing nothing, until it is killed
+  if (channel.fault === 'hang') {
+    setInterval(() => {}, 60_000) // stays alive, doing nothing, until it is killed
     return
   }
-  if (workerData?.fault === 'exit-first-try' && task.attempt === 1) process.exit(70)
+  if (channel.fault === 'exit-first-try' && task.attempt === 1) process.exit(70)
   try {
     const result = await sizePhoto(task)
-    parentPort.postMessage({ ok: true, result }, result.variants.map(v => v.bytes))
+    // Peak memory of this process: meaningful for a child, the whole server's for a thread.
+    result.maxRssMb = Math.round(process.resourceUsage().maxRSS / 1024)
+    channel.send({ ok: true, result }, result.variants.map(v => v.bytes))
   }
   catch (error) {
-    parentPort.postMessage({ ok: false, permanent: error instanceof Unprocessable, message: String(error?.message ?? error) })
+    channel.send({ ok: false, permanent: error instanceof Unprocessable, message: String(error?.message ?? error) })
   }
 })

@@ -1,25 +1,24 @@
-import { Worker } from 'node:worker_threads'
-import { describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PHOTO_JPEG_QUALITY, PHOTO_WIDTHS } from '#shared/types/photos'
+import { PhotoTaskError, runPhotoTask, type SizedPhoto } from '../../../server/utils/photo-pool'
 import { carriesExif, withExif } from '../../support/exif'
 import { decode, makeJpeg, makePng, pixel, type Paint } from '../../support/photos'
 
-// The worker file itself, run in a worker thread the way server/utils/photo-pool.ts runs it.
-const WORKER = new URL('../../../server/workers/photo-worker.mjs', import.meta.url)
+// server/workers/photo-worker.mjs through the real pool, as a child process (the
+// default) and as a worker thread (PHOTO_WORKER_MODE=thread).
 
-interface Result { ok: boolean, message?: string, permanent?: boolean, result?: { width: number, height: number, variants: { width: number, height: number, bytes: ArrayBuffer }[] } }
+interface Result { ok: boolean, message?: string, permanent?: boolean, result?: SizedPhoto }
 
-function size(bytes: Uint8Array, mime: string, width: number, height: number, orientation = 1): Promise<Result> {
-  return new Promise((resolve, reject) => {
-    const worker = new Worker(WORKER, { workerData: {} })
-    worker.once('message', (m: Result) => {
-      void worker.terminate()
-      resolve(m)
-    })
-    worker.once('error', reject)
-    const copy = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer
-    worker.postMessage({ bytes: copy, mime, width, height, orientation, widths: PHOTO_WIDTHS, quality: PHOTO_JPEG_QUALITY, attempt: 1 }, [copy])
-  })
+async function size(bytes: Uint8Array, mime: string, width: number, height: number, orientation = 1): Promise<Result> {
+  const copy = bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer
+  try {
+    const result = await runPhotoTask({ bytes: copy, mime, width, height, orientation, widths: PHOTO_WIDTHS, quality: PHOTO_JPEG_QUALITY, attempt: 1 })
+    return { ok: true, result }
+  }
+  catch (error) {
+    if (error instanceof PhotoTaskError) return { ok: false, message: error.message, permanent: error.permanent }
+    throw error
+  }
 }
 
 type Colour = 'red' | 'green' | 'blue' | 'yellow'
@@ -37,7 +36,10 @@ function nearest([r, g, b]: [number, number, number]): Colour {
 // right-hand side, the 0th column the visual top" -> stored bottom-left shows top-left.
 const SHOWN_TOP_LEFT: Record<number, Colour> = { 1: 'red', 2: 'green', 3: 'yellow', 4: 'blue', 5: 'red', 6: 'blue', 7: 'yellow', 8: 'green' }
 
-describe('photo worker', () => {
+describe.each(['process', 'thread'])('photo worker as a %s', (mode) => {
+  beforeAll(() => { process.env.PHOTO_WORKER_MODE = mode })
+  afterAll(() => { delete process.env.PHOTO_WORKER_MODE })
+
   it('makes the web sizes, never upscaling, with the right dimensions', async () => {
     const jpeg = await makeJpeg(2600, 1300)
     const answer = await size(jpeg, 'image/jpeg', 2600, 1300)
