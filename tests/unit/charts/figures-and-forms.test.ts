@@ -3,6 +3,7 @@ import { PartSpecSchema } from '#shared/types/workspace'
 import { emptyPartDraft, partFromDraft, partToDraft } from '#shared/utils/part-fields'
 import { formNullableNumber, formNumber } from '#shared/utils/form-values'
 import { formatReported, formatSigned } from '#shared/utils/figures'
+import { mergeDrafts } from '#shared/utils/draft-merge'
 
 describe('part card drafts', () => {
   it('turns a filled cam card into a spec the schema accepts, and back', () => {
@@ -50,5 +51,21 @@ describe('reported figures', () => {
     expect(formatSigned(12.44)).toBe('+12.4')
     expect(formatSigned(-3)).toBe('-3.0')
     expect(formatSigned(0.04)).toBe('0.0')
+  })
+})
+
+describe('merging a form with a newer save', () => {
+  const base = { title: 'A', shop: '', notes: 'x' }
+  it('keeps my changed fields and takes theirs everywhere else', () => {
+    const m = mergeDrafts(base, { ...base, title: 'Mine' }, { ...base, shop: 'Their shop', title: 'Theirs' })
+    expect(m.merged).toEqual({ title: 'Mine', shop: 'Their shop', notes: 'x' })
+    expect(m.mine).toEqual(['title'])
+    expect(m.theirs).toEqual(['title', 'shop'])
+    expect(m.both).toEqual(['title'])
+  })
+
+  it('does not call a field contested when both typed the same', () => {
+    const m = mergeDrafts(base, { ...base, notes: 'y ' }, { ...base, notes: 'y' })
+    expect(m.both).toEqual([])
   })
 })
