@@ -12,7 +12,7 @@
 import os from 'node:os'
 import { syntheticPull } from '../shared/dyno/index'
 import { clearAnalysisCaches, runAnalysis } from '../server/utils/analysis'
-import { findBenchTest, createBenchTest } from '../server/utils/bench-tests'
+import { benchTestById, createBenchTest } from '../server/utils/bench-test-core'
 import { createSetup } from '../server/utils/setups'
 import { checkPullBatch, importPulls, type PullToImport } from '../server/utils/pull-import'
 import { migrate, scriptDb } from '../scripts/lib/database'
@@ -77,7 +77,7 @@ try {
       })
       await importPulls(db, b.id, files, { userId: user.id })
     }
-    const benchTest = await findBenchTest(db, { ...user, role: 'admin' }, b.id)
+    const benchTest = await benchTestById(db, b.id)
     const time = async (before: () => void) => {
       const ms: number[] = []
       for (let i = 0; i < RUNS_ANALYSIS; i++) {

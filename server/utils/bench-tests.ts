@@ -1,45 +1,15 @@
-// Bench tests: the writer's test programmes. Reached only through visibleBenchTests
-// (ownership in the WHERE). Core functions take the Knex instance so the demo seed
-// can call them outside Nitro.
+// Bench tests as a user reaches them: only through visibleBenchTests (ownership in the
+// WHERE). Creation and the DTO live in bench-test-core.ts.
 import type { Knex } from 'knex'
 import type { CurrentUser } from '../../shared/types/users'
-import type { BenchTest, BenchTestDetail, BenchTestSummary, CreateBenchTestInput, UpdateBenchTestInput } from '../../shared/types/workspace'
-import type { CorrectionStandard } from '../../shared/dyno/index'
-import type { EngineFamily, PartType } from '../../shared/types/catalog'
-import { visibleBenchTests, type BenchTestRecord } from './bench-access'
+import type { BenchTest, BenchTestDetail, BenchTestSummary, UpdateBenchTestInput } from '../../shared/types/workspace'
+import { visibleBenchTests } from './bench-access'
+import { benchTestById, toBenchTest, withOwner, type BenchTestRow } from './bench-test-core'
 import { confirmDeletion, invalidField, missing, staleVersion } from './workspace-http'
-import { isoDay, isoTime, isoTimeRequired } from './workspace-rows'
 import { getBuildSheet } from './build-sheets'
 import { listSetups } from './setups'
 
 type Db = Knex | Knex.Transaction
-type BenchTestRow = BenchTestRecord & { owner_name: string }
-
-export function toBenchTest(row: BenchTestRow): BenchTest {
-  return {
-    id: row.id,
-    slug: row.slug,
-    title: row.title,
-    engineFamily: row.engine_family as EngineFamily,
-    partType: row.part_type as PartType,
-    shop: row.shop,
-    dyno: row.dyno,
-    testedFrom: isoDay(row.tested_from),
-    testedTo: isoDay(row.tested_to),
-    notes: row.notes,
-    ownerId: row.owner_id,
-    ownerName: row.owner_name,
-    defaultStandard: row.default_standard as CorrectionStandard,
-    version: row.version,
-    createdAt: isoTimeRequired(row.created_at),
-    updatedAt: isoTimeRequired(row.updated_at),
-    deletedAt: isoTime(row.deleted_at),
-  }
-}
-
-function withOwner(query: Knex.QueryBuilder) {
-  return query.join('users as owner', 'owner.id', 'bench_tests.owner_id').select('bench_tests.*', 'owner.display_name as owner_name')
-}
 
 /** One bench test as its owner (or an editor) sees it; 404 otherwise. */
 export async function findBenchTest(db: Db, user: CurrentUser, id: number, opts: { deleted?: boolean } = {}): Promise<BenchTest> {
@@ -47,12 +17,6 @@ export async function findBenchTest(db: Db, user: CurrentUser, id: number, opts:
   if (opts.deleted) query.whereNotNull('bench_tests.deleted_at')
   const row = await withOwner(query).first() as BenchTestRow | undefined
   if (!row) missing(opts.deleted ? 'No such deleted bench test.' : 'No such bench test.')
-  return toBenchTest(row)
-}
-
-async function benchTestById(db: Db, id: number): Promise<BenchTest> {
-  const row = await withOwner(db('bench_tests').where('bench_tests.id', id)).first() as BenchTestRow | undefined
-  if (!row) missing('No such bench test.')
   return toBenchTest(row)
 }
 
@@ -73,45 +37,6 @@ export async function listBenchTests(db: Db, user: CurrentUser, query: { deleted
     const { notes: _notes, ...rest } = toBenchTest(row)
     return { ...rest, setupCount: Number(row.setup_count), pullCount: Number(row.pull_count), inboxWaiting: Number(row.inbox_waiting) }
   })
-}
-
-/** URL-safe, readable and unique: "Long-tube headers on a 6.3 L V8" -> "long-tube-headers-on-a-6-3-l-v8". */
-export function slugify(title: string): string {
-  const slug = title.normalize('NFKD').replace(/[\u0300-\u036F]/g, '').toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 100).replace(/-+$/, '')
-  return slug || 'bench-test'
-}
-
-async function uniqueSlug(db: Db, title: string): Promise<string> {
-  const base = slugify(title)
-  const taken = new Set((await db('bench_tests').where('slug', base).orWhere('slug', 'like', `${base}-%`).pluck('slug')) as string[])
-  if (!taken.has(base)) return base
-  for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`
-}
-
-export async function createBenchTest(db: Knex, ownerId: number, input: CreateBenchTestInput): Promise<BenchTest> {
-  for (let attempt = 0; ; attempt++) {
-    try {
-      const [id] = await db('bench_tests').insert({
-        slug: await uniqueSlug(db, input.title),
-        title: input.title,
-        engine_family: input.engineFamily,
-        part_type: input.partType,
-        shop: input.shop ?? '',
-        dyno: input.dyno ?? '',
-        tested_from: input.testedFrom ?? null,
-        tested_to: input.testedTo ?? null,
-        notes: input.notes ?? '',
-        owner_id: ownerId,
-        default_standard: input.defaultStandard ?? 'sae-j1349-1990',
-      })
-      return benchTestById(db, Number(id))
-    }
-    catch (error) {
-      // Two writers choosing the same title at once: take the next free slug.
-      if ((error as { code?: string }).code !== 'ER_DUP_ENTRY' || attempt >= 3) throw error
-    }
-  }
 }
 
 export async function getBenchTestDetail(db: Knex, user: CurrentUser, id: number): Promise<BenchTestDetail> {

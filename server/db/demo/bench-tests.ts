@@ -6,7 +6,7 @@
 import type { Knex } from 'knex'
 import { kPaToInHg, fToC, hpToKw, inHgToKPa, lbFtToNm, syntheticPull, writeCsv, type SyntheticPullOptions, type TorqueModel, type Weather } from '../../../shared/dyno/index'
 import type { CreateBenchTestInput, CreateSetupInput, BuildSheetInput, IdleCheckInput } from '../../../shared/types/workspace'
-import { createBenchTest } from '../../utils/bench-tests'
+import { createBenchTest } from '../../utils/bench-test-core'
 import { putBuildSheet } from '../../utils/build-sheets'
 import { addIdleCheck, createSetup } from '../../utils/setups'
 import { importPulls, type PullToImport } from '../../utils/pull-import'

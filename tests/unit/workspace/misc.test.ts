@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { LruCache } from '../../../server/utils/lru-cache'
-import { slugify } from '../../../server/utils/bench-tests'
+import { slugify } from '../../../server/utils/bench-test-core'
 import { cleanFileName, hashToken } from '../../../server/utils/operator-links'
 import { isoDay, parseJsonColumn } from '../../../server/utils/workspace-rows'
 
