@@ -1,0 +1,172 @@
+// A reader on a published story: the server's SVG graph turns live, hovering moves
+// the readout, a setup can be toggled off, units and correction standard switch
+// (and are remembered), the data downloads as CSV. axe-core finds no serious or
+// critical problem on the home page, a story and search. Screenshots at phone and
+// desktop widths go to .data/test/screenshots.
+import { mkdirSync, readFileSync } from 'node:fs'
+import { createRequire } from 'node:module'
+import { join } from 'node:path'
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { openBrowser, type BrowserSession } from '../support/browser'
+import { signedIn } from '../support/http'
+import { expectOk } from '../support/workspace'
+import { createStory, storyBench, transition, type StoryBench } from '../support/stories'
+
+const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
+const AXE = createRequire(import.meta.url).resolve('axe-core/axe.min.js')
+const word = `quindle${Math.random().toString(36).slice(2, 7)}`
+let bench: StoryBench
+let slug = ''
+
+beforeAll(async () => {
+  mkdirSync(SHOTS, { recursive: true })
+  const editor = await signedIn('editor@example.com')
+  bench = await storyBench(editor)
+  const body = [
+    `The long-duration cam against the baseline on a ${word} test engine (synthetic pulls, invented data).`,
+    '',
+    `::pull-graph{setups="${bench.baselineId},${bench.camId}" channel="both"}`,
+    '::',
+    '',
+    `It gained :figure-value{of="peak-power-gain" setup=${bench.camId} vs=${bench.baselineId}} at the peak.`,
+    '',
+    '::results-table',
+    '::',
+  ].join('\n')
+  const story = await createStory(editor, bench.benchTestId, { body, deck: 'More duration, more top end.', headline: `Cam swap on the ${word} engine` })
+  expectOk(await transition(editor, story.id, 'submit'))
+  expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
+  expectOk(await transition(editor, story.id, 'approve'))
+  expectOk(await transition(editor, story.id, 'publish_now'))
+  slug = story.slug
+}, 120_000)
+
+async function seriousViolations(page: Page) {
+  // Evaluated through the debugging protocol: the page's CSP (script hashes) would refuse an injected <script>.
+  await page.evaluate(readFileSync(AXE, 'utf8'))
+  const result = await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document) => Promise<{ violations: { id: string, impact: string, nodes: { target: string[] }[] }[] }> } }).axe
+    return axe.run(document)
+  })
+  return result.violations
+    .filter(v => v.impact === 'serious' || v.impact === 'critical')
+    .map(v => `${v.id} (${v.impact}): ${v.nodes.slice(0, 3).map(n => n.target.join(' ')).join(', ')}`)
+}
+
+describe('a reader on a story', () => {
+  let browser: BrowserSession
+  beforeAll(async () => { browser = await openBrowser() })
+  afterAll(async () => { await browser?.close() })
+
+  it('reads the graph, toggles a setup, switches units and standard, and downloads the data', async () => {
+    const { page } = browser
+    await page.goto(`/stories/${slug}`)
+    const graph = page.getByTestId('figure-graph').first()
+    await graph.scrollIntoViewIfNeeded()
+    await page.locator('[data-testid="figure-graph"][data-live="true"]').first().waitFor({ timeout: 20_000 })
+
+    // Hover the left part of the live graph: the readout leaves its middle default for a lower rpm.
+    const live = graph.getByTestId('figure-live')
+    const box = (await live.boundingBox())!
+    const at = graph.getByTestId('figure-readout-at')
+    const rpmOf = async () => Number((await at.textContent())!.replace(/[^\d]/g, ''))
+    const middle = await rpmOf()
+    await page.mouse.move(box.x + box.width * 0.25, box.y + box.height * 0.5, { steps: 4 })
+    await expect.poll(rpmOf, { timeout: 5000 }).toBeLessThan(middle)
+    // The slider beside it is the keyboard's way along the curve: End goes to the top of the range.
+    await graph.getByTestId('figure-readout-rpm').focus()
+    await page.keyboard.press('End')
+    await expect.poll(rpmOf).toBeGreaterThan(middle)
+    await expect(graph.getByTestId('figure-readout-row').count()).resolves.toBe(2)
+    expect(await graph.getByTestId('figure-readout-row').first().textContent()).toMatch(/\d hp/)
+
+    // Toggle the cam off: one curve left in the readout.
+    await graph.getByTestId(`figure-toggle-${bench.camId}`).uncheck()
+    await expect.poll(() => graph.getByTestId('figure-readout-row').count()).toBe(1)
+    await graph.getByTestId(`figure-toggle-${bench.camId}`).check()
+
+    // The graph's units: kW and N-m in the readout.
+    await graph.getByTestId('figure-units-kw-nm').check()
+    await expect.poll(() => graph.getByTestId('figure-readout-row').first().textContent()).toMatch(/kW/)
+
+    // The reader's units for the data: the table and the CSV follow, and are remembered.
+    const data = page.getByTestId('story-data')
+    await data.getByTestId('units-switch').selectOption('kw-nm')
+    await expect.poll(() => data.getByTestId('story-results').getAttribute('data-units')).toBe('kw-nm')
+    await expect(data.getByTestId('results-table').textContent()).resolves.toContain('kW')
+
+    // The correction standard redraws the story's figures too.
+    await data.getByTestId('standard-switch').selectOption('din-70020')
+    await expect.poll(() => data.getByTestId('story-results').getAttribute('data-standard')).toBe('din-70020')
+    await expect.poll(() => graph.locator('figcaption').textContent()).toContain('DIN 70020')
+
+    const [download] = await Promise.all([page.waitForEvent('download'), data.getByTestId('download-data').click()])
+    const csv = readFileSync((await download.path())!, 'utf8')
+    const header = csv.split(/\r?\n/)[0]!
+    expect(header).toContain('Peak power (kW)')
+    expect(csv).toContain('DIN 70020')
+    expect(download.suggestedFilename()).toBe(`${slug}-results.csv`)
+
+    await page.reload()
+    await expect.poll(() => page.getByTestId('units-switch').inputValue()).toBe('kw-nm')
+    await expect.poll(() => page.getByTestId('standard-switch').inputValue()).toBe('din-70020')
+    await page.screenshot({ path: join(SHOTS, 'reader-story-desktop.png'), fullPage: true })
+  })
+
+  it('has no serious or critical accessibility problems on a story', async () => {
+    const { page } = browser
+    await page.goto(`/stories/${slug}`)
+    await page.getByTestId('story-data').waitFor()
+    expect(await seriousViolations(page)).toEqual([])
+  })
+
+  it('reaches the download and the switches by keyboard', async () => {
+    const { page } = browser
+    await page.goto(`/stories/${slug}`)
+    const reached = new Set<string>()
+    for (let i = 0; i < 80 && reached.size < 3; i++) {
+      await page.keyboard.press('Tab')
+      const id = await page.evaluate(() => document.activeElement?.getAttribute('data-testid') ?? '')
+      if (['units-switch', 'standard-switch', 'download-data'].includes(id)) reached.add(id)
+    }
+    expect([...reached].sort()).toEqual(['download-data', 'standard-switch', 'units-switch'])
+  })
+})
+
+describe('home, search and phones', () => {
+  let browser: BrowserSession
+  afterAll(async () => { await browser?.close() })
+
+  it('lists the story on the home page and finds it by search, without serious accessibility problems', async () => {
+    browser = await openBrowser()
+    const { page } = browser
+    await page.goto('/')
+    await page.getByTestId(`story-card-${slug}`).first().waitFor()
+    expect(await seriousViolations(page)).toEqual([])
+    await page.screenshot({ path: join(SHOTS, 'reader-home-desktop.png'), fullPage: true })
+
+    await page.getByTestId('search-input').first().fill(word)
+    await page.getByTestId('search-submit').first().click()
+    await page.waitForURL(/\/search\?q=/)
+    await page.getByTestId('search-results').getByTestId(`story-card-${slug}`).waitFor()
+    expect(await seriousViolations(page)).toEqual([])
+  })
+
+  it('fits a phone screen', async () => {
+    const phone = await openBrowser({ width: 390, height: 844 })
+    try {
+      const { page } = phone
+      await page.goto(`/stories/${slug}`)
+      await page.getByTestId('story-data').waitFor()
+      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)
+      expect(overflow).toBeLessThanOrEqual(0)
+      await page.screenshot({ path: join(SHOTS, 'reader-story-phone.png'), fullPage: true })
+      await page.goto('/')
+      await page.screenshot({ path: join(SHOTS, 'reader-home-phone.png'), fullPage: true })
+    }
+    finally {
+      await phone.close()
+    }
+  })
+})
