@@ -10,7 +10,7 @@
 //   4. uncached story page (a signed-in reader: never cached), p95 at 10 concurrent < 80 ms
 //   5. first-load JS of the story page               < 120 KB gzip
 import { spawnSync } from 'node:child_process'
-import { mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { chmodSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import os from 'node:os'
 import { join } from 'node:path'
 import autocannon from 'autocannon'
@@ -94,7 +94,12 @@ try {
   const storyUrl = `${fixture.base}/stories/${fixture.slug}`
   const html = await (await fetch(storyUrl)).text()
   mkdirSync(join(dir, 'static'), { recursive: true })
-  mkdirSync(join(dir, 'cache'), { recursive: true })
+  // nginx's workers drop root for "nobody": they must reach the folders and write the cache.
+  for (const up of [join(ROOT, '.data'), join(ROOT, '.data', 'bench'), dir, join(dir, 'static')]) chmodSync(up, 0o755)
+  for (const sub of ['cache', 'tmp-body', 'tmp-proxy', 'tmp-fastcgi', 'tmp-uwsgi', 'tmp-scgi']) {
+    mkdirSync(join(dir, sub), { recursive: true })
+    chmodSync(join(dir, sub), 0o777)
+  }
   writeFileSync(join(dir, 'static', 'story.html'), html)
   writeFileSync(join(dir, 'nginx.conf'), nginxConfig(Number(new URL(fixture.base).port)))
   const check = spawnSync('nginx', ['-t', '-p', dir, '-c', join(dir, 'nginx.conf')], { encoding: 'utf8' })
