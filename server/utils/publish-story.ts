@@ -14,7 +14,7 @@ export async function publishScheduledStory(payload: unknown): Promise<PublishOu
   // A payload this app cannot read will never become readable: nothing to retry.
   if (!parsed.success) return 'skipped'
   const { storyId, scheduledAt } = parsed.data
-  return useDb().transaction(async (trx) => {
+  return storyTransaction(async (trx) => {
     const row = await trx<StoryRow>('stories').where({ id: storyId }).forUpdate().first()
     if (!row || row.state !== 'scheduled' || !row.scheduled_at) return 'skipped'
     if (new Date(row.scheduled_at).getTime() !== new Date(scheduledAt).getTime()) return 'skipped'

@@ -166,6 +166,18 @@ export async function storyById(db: Db, id: number): Promise<StoryRow> {
   return row
 }
 
+const isDeadlock = (error: unknown) => (error as { code?: string }).code === 'ER_LOCK_DEADLOCK' || (error as { errno?: number }).errno === 1213
+
+/** A transaction retried when MariaDB picks it as a deadlock victim (it was rolled back whole). */
+export async function storyTransaction<T>(work: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    try { return await useDb().transaction(work) }
+    catch (error) {
+      if (!isDeadlock(error) || attempt >= 3) throw error
+    }
+  }
+}
+
 /** 409 with the story as it is now: the version the caller read is stale. */
 export async function staleStory(user: CurrentUser, id: number): Promise<never> {
   const current = await getStory(user, id)

@@ -61,8 +61,7 @@ async function findNote(storyId: number, noteId: number): Promise<StoryNote> {
 }
 
 export async function addNote(user: CurrentUser, storyId: number, input: z.output<typeof CreateNoteBody>): Promise<StoryNote> {
-  const db = useDb()
-  const id = await db.transaction(async (trx) => {
+  const id = await storyTransaction(async (trx) => {
     const story = await requireStoryRow(trx, user, storyId)
     let threadId: number | null = null
     if (input.parentId !== undefined) {

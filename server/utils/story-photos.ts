@@ -17,8 +17,11 @@ export async function usedPhotoIds(db: Db, row: Pick<StoryRow, 'bench_test_id' |
 
 export async function syncStoryPhotos(trx: Knex.Transaction, row: StoryRow): Promise<void> {
   const ids = await usedPhotoIds(trx, row)
-  await trx('story_photos').where('story_id', row.id).delete()
-  if (ids.length) await trx('story_photos').insert(ids.map(photo_id => ({ story_id: row.id, photo_id })))
+  // By primary key only (no range delete): gap locks would deadlock concurrent saves.
+  const existing = await trx('story_photos').where('story_id', row.id).pluck('photo_id') as number[]
+  for (const id of existing.filter(id => !ids.includes(id))) await trx('story_photos').where({ story_id: row.id, photo_id: id }).delete()
+  const added = ids.filter(id => !existing.includes(id))
+  if (added.length) await trx('story_photos').insert(added.map(photo_id => ({ story_id: row.id, photo_id })))
 }
 
 /**

@@ -34,9 +34,20 @@ function slugTaken(slug: string): never {
   throw httpError(409, `Another story already uses the slug "${slug}".`, { issues: [{ path: 'slug', message: 'Already used by another story' }] })
 }
 
+/**
+ * Makes a story's byline or tag rows equal to `values`, touching rows by primary
+ * key only: a DELETE ... WHERE story_id = ? would take gap locks that deadlock two
+ * stories saved at once.
+ */
 async function replaceList(trx: Knex.Transaction, table: 'story_bylines' | 'story_tags', storyId: number, column: 'user_id' | 'tag', values: (number | string)[]) {
-  await trx(table).where('story_id', storyId).delete()
-  if (values.length) await trx(table).insert(values.map((value, position) => ({ story_id: storyId, [column]: value, position })))
+  const existing = await trx(table).where('story_id', storyId).select(column, 'position') as Record<string, number | string>[]
+  const gone = existing.map(r => r[column]!).filter(v => !values.includes(v))
+  for (const value of gone) await trx(table).where({ story_id: storyId, [column]: value }).delete()
+  for (const [position, value] of values.entries()) {
+    const row = existing.find(r => r[column] === value)
+    if (!row) await trx(table).insert({ story_id: storyId, [column]: value, position })
+    else if (Number(row.position) !== position) await trx(table).where({ story_id: storyId, [column]: value }).update({ position })
+  }
 }
 
 export async function createStory(user: CurrentUser, input: CreateStoryInput): Promise<Story> {
@@ -46,7 +57,7 @@ export async function createStory(user: CurrentUser, input: CreateStoryInput): P
   await checkBylines(db, user, bylineIds)
   for (let attempt = 0; ; attempt++) {
     try {
-      const id = await db.transaction(async (trx) => {
+      const id = await storyTransaction(async (trx) => {
         const slug = input.slug ?? await freeSlug(trx, input.headline)
         const [storyId] = await trx('stories').insert({
           bench_test_id: benchTest.id,
@@ -94,10 +105,9 @@ const FIELD_COLUMNS = {
  * version is stale, 409 when this user may not edit the story in its state.
  */
 export async function saveStoryContent(user: CurrentUser, id: number, input: UpdateStoryInput, opts: { kind?: RevisionKind, note?: string } = {}): Promise<Story> {
-  const db = useDb()
   const kind: RevisionKind = opts.kind ?? (input.autosave ? 'autosave' : 'save')
   try {
-    await db.transaction(async (trx) => {
+    await storyTransaction(async (trx) => {
       const row = await requireStoryRow(trx, user, id, { lock: true })
       if (row.version !== input.version) staleVersion(await storyDto(trx, row, user), 'story')
       const own = await trx('story_bylines').where({ story_id: id, user_id: user.id }).first('user_id')

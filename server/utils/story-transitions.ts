@@ -140,7 +140,7 @@ export async function applyMove(trx: Knex.Transaction, row: StoryRow, move: Appl
 /** Checks in the documented order: role 403, state 409, version 409, note 400, guards 422. */
 export async function runTransition(user: CurrentUser, storyId: number, input: TransitionInput): Promise<{ story: Story, transition: StoryTransition }> {
   const db = useDb()
-  const transitionId = await db.transaction(async (trx) => {
+  const transitionId = await storyTransaction(async (trx) => {
     const row = await requireStoryRow(trx, user, storyId, { lock: true })
     const own = Boolean(await trx('story_bylines').where({ story_id: storyId, user_id: user.id }).first('user_id'))
     const decision = decideTransition(input.action, row.state, user.role, own)
