@@ -116,24 +116,34 @@ export async function compareRevisions(user: CurrentUser, storyId: number, fromI
   return { from, to, changedFields, bodyDiff: diffLines(from.content.body, to.content.body) }
 }
 
-/** The revision's content becomes the story's (a new version and a `restore` revision); the state stays. */
+/**
+ * The revision's content becomes the story's (a new version and a `restore`
+ * revision); the state stays. A hero photo deleted since, or bylines who can no
+ * longer be bylines, are left as they are now rather than refusing the restore.
+ */
 export async function restoreRevision(user: CurrentUser, storyId: number, revisionId: number, version: number) {
   const db = useDb()
-  await requireStoryRow(db, user, storyId)
+  const story = await requireStoryRow(db, user, storyId)
   const revision = await findRevision(db, storyId, revisionId)
   const c = revision.content
+  const heroStillThere = c.heroPhotoId === null || Boolean(await db('photos').where({ id: c.heroPhotoId, bench_test_id: story.bench_test_id }).first('id'))
+  const validBylines = c.bylineIds.length
+    ? await db('users').whereIn('id', c.bylineIds).where('disabled', false).whereIn('role', ['writer', 'editor', 'admin']).pluck('id') as number[]
+    : []
+  const bylineIds = c.bylineIds.filter(id => validBylines.includes(id))
+  const keepsMe = user.role !== 'writer' || bylineIds.includes(user.id)
   return saveStoryContent(user, storyId, {
     version,
     headline: c.headline,
     deck: c.deck,
     body: c.body,
     slug: c.slug,
-    heroPhotoId: c.heroPhotoId,
+    ...(heroStillThere ? { heroPhotoId: c.heroPhotoId } : {}),
     tags: c.tags,
     engineFamily: c.engineFamily,
     partType: c.partType,
     searchTitle: c.searchTitle,
     searchDescription: c.searchDescription,
-    bylineIds: c.bylineIds,
+    ...(bylineIds.length && keepsMe ? { bylineIds } : {}),
   }, { kind: 'restore', note: `From the revision of ${revision.createdAt} (version ${revision.storyVersion})` })
 }
