@@ -24,7 +24,7 @@ export function reportRound(value: number, decimals = 0): number {
   const keep = pointAt + decimals
   if (digits.length <= keep) return value
   let kept = BigInt(digits.slice(0, keep) || '0')
-  if ((digits[keep] ?? '0') >= '5') kept += 1n
+  if ((digits[keep] ?? '0') >= '5') kept += BigInt(1) // not a 1n literal: the server bundle targets es2019
   const rounded = Number(`${kept}e-${decimals}`)
   return negative && rounded !== 0 ? -rounded : rounded
 }
