@@ -1,0 +1,61 @@
+import type { InjectionKey } from 'vue'
+import type { StoryFigures } from '#shared/types/stories'
+import type { FigureSource } from '#shared/types/story-figures'
+
+/**
+ * Who is looking: readers see a figure that cannot be drawn as a quiet gap; the
+ * writer's preview and the desk see why, so it can be fixed before it goes out.
+ */
+export type FigureAudience = 'reader' | 'editor'
+
+interface FigureContext { figures: Ref<StoryFigures | null>, audience: FigureAudience }
+
+const FIGURES: InjectionKey<FigureContext> = Symbol('story-figures')
+
+/** The story body gives its figures to the figure components placed in it. */
+export function provideStoryFigures(figures: Ref<StoryFigures | null>, audience: FigureAudience) {
+  provide(FIGURES, { figures, audience })
+}
+
+export function useStoryFigures() {
+  const ctx = inject(FIGURES, { figures: ref(null), audience: 'reader' as FigureAudience })
+  const figures = computed(() => ctx.figures.value)
+  const analysis = computed(() => figures.value?.analysis ?? null)
+  const source = computed(() => figureSource(figures.value))
+  return { figures, analysis, source, audience: ctx.audience }
+}
+
+/** What inlineFigureValue reads: the analysis and every pair's gains. */
+export function figureSource(figures: StoryFigures | null): FigureSource | null {
+  const a = figures?.analysis
+  if (!a || !figures) return null
+  return {
+    analysis: { baselineSetupId: a.baselineSetupId, table: a.table, units: a.units, setups: a.setups.map(s => ({ setupId: s.setupId, label: s.label })) },
+    comparisons: figures.comparisons,
+  }
+}
+
+export const storyFiguresKey = (storyId: number) => `story-figures:${storyId}`
+
+/** Everything the story's figures are drawn from: one request per story, not per figure. */
+export function fetchStoryFigures(storyId: MaybeRefOrGetter<number>) {
+  return useFetch<StoryFigures>(() => `/api/stories/${toValue(storyId)}/figures`, {
+    key: computed(() => storyFiguresKey(toValue(storyId))),
+  })
+}
+
+interface GraphOptions { setups?: number[], baseline?: number }
+type Parsed = { success: true, data: GraphOptions } | { success: false, error: { issues: { path: PropertyKey[], message: string }[] } }
+
+/** Why a graph cannot be drawn: bad options, no analysed pulls, or setups without data. */
+export function useGraphProblems(parsed: Ref<Parsed>, analysis: Ref<StoryFigures['analysis']>, figures: Ref<StoryFigures | null>) {
+  return computed(() => {
+    const p = parsed.value
+    if (!p.success) return p.error.issues.map(i => `${i.path.map(String).join('.') || 'graph'}: ${i.message}`)
+    const a = analysis.value
+    if (!a) return [figures.value?.analysisProblem ?? 'The bench test has no analysed pulls yet.']
+    const known = new Set(a.setups.map(s => s.setupId))
+    const wanted = [...(p.data.setups ?? []), ...(p.data.baseline !== undefined ? [p.data.baseline] : [])]
+    return wanted.filter(id => !known.has(id)).map(id => `Setup ${id} has no analysed pulls in this bench test.`)
+  })
+}

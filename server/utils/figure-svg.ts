@@ -1,0 +1,31 @@
+// Story graphs drawn as SVG on the server (ECharts' server-side renderer), so
+// they show without JavaScript, print sharp and cost nothing to scroll past. The
+// figure components call this while rendering the page on the server only; the
+// browser never downloads ECharts until a graph turns interactive.
+import * as echarts from 'echarts/core'
+import { LineChart } from 'echarts/charts'
+import { AriaComponent, GridComponent, LegendComponent, MarkLineComponent } from 'echarts/components'
+import { SVGRenderer } from 'echarts/renderers'
+import type { PullChartOption } from '#shared/utils/chart-options'
+
+echarts.use([LineChart, GridComponent, LegendComponent, MarkLineComponent, AriaComponent, SVGRenderer])
+
+/**
+ * The chart as an SVG string for inline use: no hover styles or class names (they
+ * would collide between graphs on one page), hidden from screen readers because
+ * the figure carries its own summary and data table.
+ */
+export function renderGraphSvg(option: PullChartOption, size: { width: number, height: number }): string {
+  const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width: size.width, height: size.height })
+  try {
+    // A static picture: no pointer, no tooltip, nothing that waits for a mouse.
+    chart.setOption({ ...option, tooltip: undefined, axisPointer: undefined, aria: { enabled: false } } as PullChartOption)
+    return chart.renderToSVGString()
+      .replace(/<style[\s\S]*?<\/style>/g, '')
+      .replace(/\sclass="zr\d+-cls-\d+"/g, '')
+      .replace(/^<svg /, '<svg aria-hidden="true" focusable="false" preserveAspectRatio="xMidYMid meet" ')
+  }
+  finally {
+    chart.dispose()
+  }
+}
