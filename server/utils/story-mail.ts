@@ -36,7 +36,11 @@ async function recipients(trx: Knex.Transaction, to: StoryMailTo | 'story-editor
   return list.filter(r => r.id !== actorId)
 }
 
-const editorLink = (storyId: number) => ({ href: `${appConfig().baseUrl}${STORY_PATHS.editor(storyId)}`, label: 'Open the story' })
+/** Editors review on the desk's page of the story; writers open it in the editor. */
+function storyLink(storyId: number, forEditors: boolean) {
+  const path = forEditors ? STORY_PATHS.deskStory(storyId) : STORY_PATHS.editor(storyId)
+  return { href: `${appConfig().baseUrl}${path}`, label: 'Open the story' }
+}
 
 function utcText(iso: string): string {
   return `${iso.slice(0, 16).replace('T', ' ')} UTC`
@@ -63,7 +67,7 @@ export async function mailStateChange(trx: Knex.Transaction, m: StateMail): Prom
     ...(m.note ? [`Note: ${m.note}`] : []),
   ]
   for (const person of people) {
-    await enqueueMail(trx, { to: person.email, subject: `${m.subject}: ${m.headline}`, paragraphs, link: editorLink(m.storyId) })
+    await enqueueMail(trx, { to: person.email, subject: `${m.subject}: ${m.headline}`, paragraphs, link: storyLink(m.storyId, m.to === 'editors') })
   }
   return people.length
 }
@@ -77,7 +81,7 @@ export async function mailNote(trx: Knex.Transaction, n: { storyId: number, head
       to: person.email,
       subject: `New note on: ${n.headline}`,
       paragraphs: [`${n.author.name} wrote a note on "${n.headline}":`, excerpt],
-      link: editorLink(n.storyId),
+      link: storyLink(n.storyId, n.authorIsByline),
     })
   }
   return people.length

@@ -35,7 +35,8 @@ export const PREVIEW_LINK_LIMITS = { minHours: 1, maxHours: 30 * 24, defaultHour
 
 /** Pages of the app that e-mails and links point to. */
 export const STORY_PATHS = {
-  editor: (storyId: number) => `/write/${storyId}`,
+  editor: (storyId: number) => `/stories/${storyId}/edit`,
+  deskStory: (storyId: number) => `/desk/${storyId}`,
   desk: () => '/desk',
   preview: (token: string) => `/preview/${token}`,
 } as const
