@@ -24,7 +24,8 @@ export function useInbox(benchTestId: MaybeRefOrGetter<number>, state: MaybeRefO
 
 export function useInboxActions(benchTestId: MaybeRefOrGetter<number>) {
   const id = () => toValue(benchTestId)
-  const refresh = () => refreshNuxtDataWhere(key => key.startsWith(`inbox:${id()}:`) || key === operatorLinksKey(id()))
+  // The bench test list carries the count of waiting files (the section link's badge).
+  const refresh = () => refreshNuxtDataWhere(key => key.startsWith(`inbox:${id()}:`) || key === operatorLinksKey(id()) || key.startsWith('bench-tests:'))
 
   async function preview(fileId: number, mapping?: Record<string, ColumnRole>) {
     const res = await $fetch<{ preview: PullFilePreview }>(benchTestPath(id(), `/inbox/${fileId}/preview`), { method: 'POST', body: { mapping } })

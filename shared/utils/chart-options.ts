@@ -99,8 +99,8 @@ interface TwoPanelInput {
 function twoPanelOptions(input: TwoPanelInput): PullChartOption {
   const extent = niceRpmExtent(input.curves)
   const grids: GridComponentOption[] = [
-    { left: 64, right: 24, top: 48, height: '36%' },
-    { left: 64, right: 24, top: '58%', bottom: 48 },
+    { left: 72, right: 24, top: 44, height: '36%' },
+    { left: 72, right: 24, top: '58%', bottom: 48 },
   ]
   const xAxis = CHANNELS.map((_, gridIndex) => ({
     type: 'value' as const,
@@ -118,7 +118,11 @@ function twoPanelOptions(input: TwoPanelInput): PullChartOption {
     gridIndex,
     scale: !input.zeroLine,
     name: input.axisName(channel),
-    nameTextStyle: { color: INK, align: 'left' as const },
+    // Beside the axis, turned, so the legend above the top panel never covers it.
+    nameLocation: 'middle' as const,
+    nameRotate: 90,
+    nameGap: 46,
+    nameTextStyle: { color: INK },
     axisLabel: { color: INK_SOFT },
     splitLine: { lineStyle: { color: GRID_LINE } },
   }))
@@ -150,7 +154,7 @@ function twoPanelOptions(input: TwoPanelInput): PullChartOption {
     animation: false,
     textStyle: { fontFamily: FONT, color: INK },
     aria: { enabled: true, label: { description: input.description } },
-    legend: { top: 8, left: 64, data: input.curves.map(c => input.seriesName(c)), textStyle: { color: INK } },
+    legend: { top: 8, left: 72, data: input.curves.map(c => input.seriesName(c)), textStyle: { color: INK } },
     grid: grids,
     xAxis,
     yAxis,

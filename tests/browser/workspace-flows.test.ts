@@ -136,7 +136,7 @@ describe('workspace pages beyond the first import', () => {
     await card.locator('[data-testid^="inbox-setup-"]').selectOption(String(setupId))
     await shot(page, 'inbox')
     await page.getByTestId('inbox-assign').click()
-    await page.getByText('now pulls of their setups').waitFor()
+    await page.getByText('added as a pull of its setup').waitFor()
     const pulls = await api('get', `/api/bench-tests/${id}/pulls`)
     expect(pulls.body.pulls.map((p: any) => p.fileName)).toContain('cell2-pull.csv')
 
@@ -149,6 +149,34 @@ describe('workspace pages beyond the first import', () => {
       await expect(late.page.getByTestId('upload-closed').textContent()).resolves.toMatch(/withdrawn/i)
     }
     finally { await late.close() }
+  })
+
+  it('leaves a pull out only with a reason, and takes it back', async () => {
+    await page.goto(`/bench-tests/${id}/pulls`)
+    const { body } = await api('get', `/api/bench-tests/${id}/pulls`)
+    const pullId = body.pulls[0].id
+    await page.getByTestId(`pull-exclude-${pullId}`).click()
+    const row = page.getByTestId(`pull-${pullId}`)
+    await row.getByRole('button', { name: 'Leave out' }).click()
+    await expect(row.locator(`#pull-${pullId}-reason-error`).textContent()).resolves.toContain('Say why the pull is left out')
+    await page.getByTestId(`pull-reason-${pullId}`).fill('Belt slipped at 5,800 rpm (invented)')
+    await row.getByRole('button', { name: 'Leave out' }).click()
+    await page.getByTestId(`pull-include-${pullId}`).waitFor()
+    expect((await api('get', `/api/bench-tests/${id}/pulls`)).body.pulls[0]).toMatchObject({ included: false, exclusionReason: 'Belt slipped at 5,800 rpm (invented)' })
+    await page.getByTestId(`pull-include-${pullId}`).click()
+    await page.getByTestId(`pull-exclude-${pullId}`).waitFor()
+  })
+
+  it('moves a setup down the list and makes another the baseline', async () => {
+    await page.goto(`/bench-tests/${id}/setups`)
+    const names = () => page.getByTestId('setup-list').getByTestId('setup-name').allTextContents()
+    const before = await names()
+    await page.getByTestId(`setup-down-${setupId}`).click()
+    await expect.poll(names).toEqual([...before].reverse())
+    const other = (await api('get', `/api/bench-tests/${id}`)).body.setups.find((s: any) => s.id !== setupId)
+    await page.getByTestId(`setup-make-baseline-${other.id}`).click()
+    await page.getByTestId(`setup-${other.id}`).getByTestId('setup-baseline-badge').waitFor()
+    expect(await page.getByTestId(`setup-${setupId}`).getByTestId('setup-baseline-badge').count()).toBe(0)
   })
 
   it('asks before deleting a setup with pulls, and restores it', async () => {
@@ -168,5 +196,16 @@ describe('workspace pages beyond the first import', () => {
     await page.locator('[data-testid="analysis-chart"][data-series-count="1"]').waitFor({ timeout: 20_000 })
     await page.getByTestId(`results-peak-power-${setupId}`).waitFor()
     await shot(page, 'analysis')
+  })
+
+  it.runIf(!!SHOTS)('pictures the demo bench test with the most pulls (for a human look)', async () => {
+    const list = (await api('get', '/api/bench-tests')).body.benchTests as { id: number, pullCount: number }[]
+    const demo = [...list].sort((a, b) => b.pullCount - a.pullCount)[0]
+    expect(demo?.pullCount).toBeGreaterThan(0)
+    for (const section of ['pulls', 'analysis']) {
+      await page.goto(`/bench-tests/${demo!.id}/${section}`)
+      if (section === 'analysis') await page.locator('[data-testid="analysis-chart"] svg').first().waitFor({ timeout: 20_000 })
+      await shot(page, `demo-${section}`)
+    }
   })
 })
