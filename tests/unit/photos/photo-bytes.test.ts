@@ -110,6 +110,16 @@ describe('refusals, each with a message that says what is wrong', () => {
     expect(refusal(Buffer.from('%PDF-1.7\n', 'latin1')).message).toMatch(/PDF documents are not accepted/)
   })
 
+  it('an animated PNG (acTL chunk) and an animated WebP (VP8X animation flag)', async () => {
+    const png = Buffer.from(await makePng(4, 4))
+    const acTL = Buffer.from([0, 0, 0, 8, ...Buffer.from('acTL'), 0, 0, 0, 2, 0, 0, 0, 0, 0, 0, 0, 0]) // CRC not checked here
+    const animatedPng = Buffer.concat([png.subarray(0, 33), acTL, png.subarray(33)])
+    expect(refusal(animatedPng).message).toMatch(/Animated PNG images are not accepted/)
+    const vp8x = Buffer.concat([Buffer.from('VP8X'), Buffer.from([10, 0, 0, 0, 0x02, 0, 0, 0, 3, 0, 0, 3, 0, 0])])
+    const webp = Buffer.concat([Buffer.from('RIFF'), Buffer.from([vp8x.length + 4, 0, 0, 0]), Buffer.from('WEBP'), vp8x])
+    expect(refusal(webp).message).toMatch(/Animated WebP images are not accepted/)
+  })
+
   it('unknown binary', () => {
     expect(refusal(Uint8Array.from([0, 1, 2, 3, 250, 251, 0, 0])).message).toMatch(/not a JPEG, PNG or WebP image/)
   })
