@@ -4,8 +4,7 @@
 import { randomBytes } from 'node:crypto'
 import { Hash } from '@adonisjs/hash'
 import { Scrypt } from '@adonisjs/hash/drivers/scrypt'
-import { RoleSchema } from '../shared/types/roles'
-import { EmailSchema } from '../shared/types/users'
+import { EmailSchema, RoleSchema } from '../shared/types/users'
 import { scriptDb } from './lib/database'
 import { localEnv, serverEnv } from './lib/env'
 

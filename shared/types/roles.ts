@@ -1,8 +1,7 @@
-import { z } from 'zod'
-
+// No zod here: this file is in every page's first-load JS (header, middleware);
+// RoleSchema lives in ./users.ts.
 export const ROLES = ['reader', 'writer', 'editor', 'admin'] as const
 export type Role = typeof ROLES[number]
-export const RoleSchema = z.enum(ROLES)
 
 /** Each role may do everything the roles before it may (brief: Roles). */
 export function rolesAtLeast(role: Role): Role[] {

@@ -1,5 +1,7 @@
 import { z } from 'zod'
-import { RoleSchema, type Role } from './roles'
+import { ROLES, type Role } from './roles'
+
+export const RoleSchema = z.enum(ROLES)
 
 /** The signed-in user as the interface sees it (GET /api/auth/me). */
 export interface CurrentUser {
