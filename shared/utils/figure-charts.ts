@@ -33,12 +33,14 @@ const FULL_GRID: GridComponentOption = { left: 64, right: 24, top: 48, bottom: 4
 
 const asArray = <T>(v: T | T[] | undefined): T[] => (v === undefined ? [] : Array.isArray(v) ? v : [v])
 
-// ECharts' plain legend: a 25 px icon, 5 px to the text, 10 px between items, rows
-// about 22 px apart; 12 px system-font text runs near 6.6 px a character (measured
-// on the server's SVG, common practice for estimating text width).
-const LEGEND = { icon: 30, gap: 10, charPx: 6.6, rowPx: 22, left: 64, right: 24 }
+// ECharts' plain legend: a 25 px icon, 5 px to the text, 10 px between items. The
+// server lays it out with its own guess at text widths, and the reader's browser
+// draws the text in its own font, often wider: so the estimate here is generous
+// (12 px system text, 7.2 px a character; common practice, checked on screen),
+// and a legend that would wrap is drawn one setup per row, which cannot overlap.
+const LEGEND = { icon: 30, gap: 10, charPx: 7.2, rowPx: 20, left: 64, right: 24 }
 
-/** How many rows the legend takes at this width. */
+/** How many rows a side-by-side legend would take at this width. */
 export function legendRows(labels: readonly string[], width: number): number {
   const room = width - LEGEND.left - LEGEND.right
   let rows = 1
@@ -58,16 +60,16 @@ const TOP = 48
 const BOTTOM = 48
 const PANEL_GAP = 44
 
-// Pixel layout once the legend needs more than one row: the first panel starts
-// below it and the two panels share what is left.
-function makeRoom(option: PullChartOption, rows: number, height: number): PullChartOption {
-  const extra = (rows - 1) * LEGEND.rowPx
-  if (extra <= 0) return option
+// A legend that does not fit on one row goes one setup per row; the first panel
+// starts below it and the two panels share what is left.
+function makeRoom(option: PullChartOption, items: number, height: number): PullChartOption {
+  const extra = (items - 1) * LEGEND.rowPx
   const grids = asArray(option.grid as GridComponentOption | GridComponentOption[])
   const top = TOP + extra
-  if (grids.length === 1) return { ...option, grid: [{ ...grids[0], top }] }
+  const legend = { ...(option.legend as object), orient: 'vertical' as const, itemGap: LEGEND.rowPx - 14 }
+  if (grids.length === 1) return { ...option, legend, grid: [{ ...grids[0], top }] }
   const panel = Math.max(60, (height - top - BOTTOM - PANEL_GAP) / 2)
-  return { ...option, grid: [{ ...grids[0], top, height: panel }, { ...grids[1], top: top + panel + PANEL_GAP, bottom: undefined, height: panel }] }
+  return { ...option, legend, grid: [{ ...grids[0], top, height: panel }, { ...grids[1], top: top + panel + PANEL_GAP, bottom: undefined, height: panel }] }
 }
 
 // The two-panel options already carry every style; one view keeps its own panel,
@@ -97,5 +99,6 @@ export function graphChartOptions(input: GraphChartInput): PullChartOption {
   const shaped = input.view === 'both' ? two : onePanel(two, input.view)
   if (input.legendWidth === undefined) return { ...shaped, legend: { ...(shaped.legend as object), show: false } }
   const labels = ((shaped.legend as { data?: string[] } | undefined)?.data ?? [])
-  return makeRoom(shaped, legendRows(labels, input.legendWidth), graphSize(input.view).height)
+  if (legendRows(labels, input.legendWidth) <= 1) return shaped
+  return makeRoom(shaped, labels.length, graphSize(input.view).height)
 }

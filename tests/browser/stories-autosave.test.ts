@@ -3,6 +3,7 @@
 // the conflict dialog instead of overwriting, revisions compared and restored.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { signedIn } from '../support/http'
 import { expectOk } from '../support/workspace'
 import { acceptLeaving, benchWithPulls, createStoryFor, saveStateIs, typeInBody, type StoryBench } from './stories-fixtures'
 
@@ -114,5 +115,22 @@ describe('saving a story without losing a word', () => {
     await page.getByTestId(`revision-restore-${oldest}`).click()
     await expect.poll(() => page.getByTestId('editor-body').inputValue()).toBe('First paragraph.')
     expect((await story()).body).toBe('First paragraph.')
+  })
+
+  it('tells the writer who else has the story open, and since when', async () => {
+    const editor = await signedIn('editor@example.com')
+    // The writer's own tab still holds it from the steps before: the editor takes it over.
+    const lock = expectOk(await editor.post(`/api/stories/${storyId}/lock`, { takeOver: true }))
+    expect(lock.heldByMe).toBe(true)
+    const { page } = session
+    await page.goto(`/stories/${storyId}/edit`)
+    const banner = page.getByTestId('lock-banner')
+    await banner.waitFor()
+    const since = await page.evaluate(iso => new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' }), lock.lock.since)
+    expect(await banner.textContent()).toContain(`${lock.lock.displayName} is editing since ${since}`)
+    // The lock warns; it never stops a save.
+    await typeInBody(page, '\n\nWritten while someone else had it open.')
+    await saveStateIs(page, 'saved')
+    await editor.delete(`/api/stories/${storyId}/lock`)
   })
 })

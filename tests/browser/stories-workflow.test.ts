@@ -70,10 +70,11 @@ describe('a story from the writer\'s first words to publication', () => {
       await picker.getByTestId('picker-value-of').selectOption('peak-power-gain')
       await picker.getByTestId('picker-value-setup').selectOption(String(bench.camId))
     })
-    await typeInBody(page, '.')
+    // A number the data does not give, for the desk's number check to catch.
+    await typeInBody(page, '. An early draft claimed 999 hp.')
     const body = await page.getByTestId('editor-body').inputValue()
     expect(body).toContain(`::pull-graph{setups="${bench.baselineId},${bench.camId}"}`)
-    expect(body).toContain(`:figure-value{of="peak-power-gain" setup=${bench.camId}}.`)
+    expect(body).toContain(`:figure-value{of="peak-power-gain" setup=${bench.camId}}. An early draft`)
     await saveStateIs(page, 'saved')
 
     // The value shown is the cam's peak minus the baseline's, reported to the whole hp
@@ -95,6 +96,34 @@ describe('a story from the writer\'s first words to publication', () => {
     const { page } = writer
     await page.reload()
     expect(await page.getByTestId('editor-body').inputValue()).toContain('At the peak the cam gained :figure-value')
+  })
+
+  it('makes a preview link that shows the story to someone without an account, until revoked', async () => {
+    const { page } = writer
+    await page.getByTestId('preview-link-label').fill('For the shop')
+    await page.getByTestId('preview-link-create').click()
+    const url = await page.getByTestId('preview-link-url').getAttribute('href')
+    expect(url).toMatch(/\/preview\/[\w-]{30,}$/)
+    const visitor = await openBrowser()
+    try {
+      const res = await visitor.page.goto(new URL(url!).pathname)
+      expect(res?.status()).toBe(200)
+      expect(await visitor.page.getByTestId('story-headline').textContent()).toContain(HEADLINE)
+      expect(await visitor.page.locator('meta[name="robots"]').getAttribute('content')).toContain('noindex')
+      // The graph is drawn by the server: there before any script has run.
+      expect(await res!.text()).toMatch(/data-figure-svg[^>]*><svg /)
+      await visitor.page.getByTestId('figure-value').waitFor()
+
+      const row = page.locator('[data-testid="preview-link-row"][data-state="active"]').filter({ hasText: 'For the shop' })
+      await row.locator('button').click()
+      await page.locator('[data-testid="preview-link-row"][data-state="revoked"]').filter({ hasText: 'For the shop' }).waitFor()
+      await visitor.page.goto(new URL(url!).pathname)
+      await visitor.page.getByTestId('preview-missing').waitFor()
+      expect(await visitor.page.getByTestId('preview-missing').textContent()).toContain('no longer works')
+    }
+    finally {
+      await visitor.close()
+    }
   })
 
   it('sends the story to the desk, and the editors hear of it', async () => {
@@ -150,6 +179,10 @@ describe('a story from the writer\'s first words to publication', () => {
     await page.reload()
     const check = page.getByTestId('number-check')
     await check.getByTestId('number-check-summary').waitFor()
+    // The made-up figure is flagged with what the data does give instead.
+    const flag = check.getByTestId('number-flag').filter({ hasText: '999 hp' })
+    await flag.waitFor()
+    expect(await flag.textContent()).toContain('Nearest:')
     // The check records itself as seen for this version; the approve guard reads that.
     await expect.poll(async () => (await bench.writer.client.get(`/api/stories/${storyId}`)).body.story.numberCheckSeenVersion).toBeGreaterThan(0)
     await page.getByTestId('action-approve').click()

@@ -115,16 +115,22 @@ describe('room for the legend in the server\'s SVG', () => {
   const long = (id: number, label: string) => ({ id, label, points: [{ rpm: 3000, power: 200, torque: 350 }, { rpm: 6000, power: 400, torque: 350 }] })
   const units = { power: 'hp', torque: 'lb-ft' }
 
+  it('keeps a short legend on one row', () => {
+    const o = graphChartOptions({ kind: 'overlay', curves: [long(1, 'Baseline'), long(2, 'Cam')], units, view: 'both', legendWidth: 720 })
+    expect((o.legend as { orient?: string }).orient).toBeUndefined()
+  })
+
   it('counts the rows long setup names need', () => {
     expect(legendRows(['Baseline', 'Cam'], 720)).toBe(1)
     expect(legendRows(['Stock intake, 60 mm throttle', 'Tuned intake, 60 mm throttle', 'Tuned intake, 70 mm throttle'], 720)).toBe(2)
   })
 
-  it('moves the panels down below a legend of two rows, and keeps them apart', () => {
+  it('stacks a legend that would wrap, one setup per row, and moves the panels below it', () => {
     const curves = ['Stock intake, 60 mm throttle', 'Tuned intake, 60 mm throttle', 'Tuned intake, 70 mm throttle'].map((l, i) => long(i + 1, l))
     const o = graphChartOptions({ kind: 'overlay', curves, units, view: 'both', legendWidth: 720 })
+    expect((o.legend as { orient: string }).orient).toBe('vertical')
     const [a, b] = o.grid as { top: number, height: number }[]
-    expect(a!.top).toBe(70)
+    expect(a!.top).toBe(48 + 2 * 20)
     expect(b!.top).toBeGreaterThanOrEqual(a!.top + a!.height + 40)
     expect(b!.top + b!.height).toBeLessThanOrEqual(graphSize('both').height - 40)
   })
