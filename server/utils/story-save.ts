@@ -50,7 +50,7 @@ async function replaceList(trx: Knex.Transaction, table: 'story_bylines' | 'stor
   }
 }
 
-export async function createStory(user: CurrentUser, input: CreateStoryInput): Promise<Story> {
+export async function createStoryDraft(user: CurrentUser, input: CreateStoryInput): Promise<Story> {
   const db = useDb()
   const benchTest = await requireBenchTest(user, input.benchTestId)
   const bylineIds = input.bylineIds ?? [user.id]

@@ -4,7 +4,7 @@ import { rolesAtLeast } from '#shared/types/roles'
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const body = await readValidatedBody(event, zodParser(CreateStoryBody))
-  const story = await createStory(user, body)
+  const story = await createStoryDraft(user, body)
   setResponseStatus(event, 201)
   return { story }
 })
