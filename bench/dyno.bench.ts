@@ -4,7 +4,7 @@
 
 import { averagePulls, comparePulls, parsePullCsv, resultsTable, syntheticPull, type PullPoint } from '../shared/dyno/index'
 
-function timeIt(label: string, runs: number, fn: () => unknown): { medianMs: number; minMs: number } {
+function timeIt(label: string, runs: number, fn: () => unknown): { medianMs: number, minMs: number } {
   for (let i = 0; i < 3; i++) fn() // warm up the JIT
   const ms: number[] = []
   for (let i = 0; i < runs; i++) {
@@ -33,12 +33,12 @@ const setups: PullPoint[][][] = Array.from({ length: 6 }, (_, s) =>
   ),
 )
 const compare = timeIt('average + compare, 6 setups x 3 pulls x 4,000 samples', 50, () => {
-  const averaged = setups.map((pulls) => averagePulls(pulls))
+  const averaged = setups.map(pulls => averagePulls(pulls))
   const base = averaged[0]!.points
   for (const a of averaged.slice(1)) comparePulls(base, a.points)
 })
 const table = timeIt('  ...plus the results table of the 6 averaged setups', 50, () => {
-  const averaged = setups.map((pulls) => averagePulls(pulls))
+  const averaged = setups.map(pulls => averagePulls(pulls))
   resultsTable(averaged.map((a, i) => ({ name: `Setup ${i + 1}`, points: a.points, spreadPct: a.spreadPct })))
 })
 

@@ -54,7 +54,7 @@ export function powerBand(points: readonly PullPoint[], fractionOfPeak = 0.9): R
   const sorted = ascending(points)
   const peak = peakOf(sorted, 'powerHp')
   const threshold = peak.value * fractionOfPeak
-  const peakIndex = sorted.findIndex((p) => p.rpm === peak.rpm)
+  const peakIndex = sorted.findIndex(p => p.rpm === peak.rpm)
   const edge = (inside: PullPoint, outside: PullPoint): number =>
     inside.rpm + ((outside.rpm - inside.rpm) * (inside.powerHp - threshold)) / (inside.powerHp - outside.powerHp)
   let fromRpm = sorted[0]?.rpm ?? peak.rpm

@@ -4,8 +4,8 @@
 // EVO after/before BDC; a negative event means the valve opens (or closes) on the
 // other side of that dead centre.
 
-export type CamCard = { intakeDuration: number; exhaustDuration: number; lsa: number; icl: number }
-export type CamEvents = { ecl: number; ivo: number; ivc: number; evo: number; evc: number; overlap: number; advance: number }
+export type CamCard = { intakeDuration: number, exhaustDuration: number, lsa: number, icl: number }
+export type CamEvents = { ecl: number, ivo: number, ivc: number, evo: number, evc: number, overlap: number, advance: number }
 
 export function camEvents({ intakeDuration, exhaustDuration, lsa, icl }: CamCard): CamEvents {
   for (const [name, v] of [['intake duration', intakeDuration], ['exhaust duration', exhaustDuration], ['lobe separation', lsa]] as const) {

@@ -8,7 +8,7 @@ import { ascending, resample, rpmGrid } from './resample'
 export const DEFAULT_STEP_RPM = 100
 
 /** The rpm range every pull covers. */
-export function sharedRange(pulls: readonly (readonly PullPoint[])[]): { fromRpm: number; toRpm: number } {
+export function sharedRange(pulls: readonly (readonly PullPoint[])[]): { fromRpm: number, toRpm: number } {
   let fromRpm = -Infinity
   let toRpm = Infinity
   for (const pull of pulls) {
@@ -30,7 +30,7 @@ export function onSharedGrid(pulls: readonly (readonly PullPoint[])[], stepRpm: 
   if (rpmGrid(stepRpm, fromRpm, toRpm).length < 2) {
     throw new RangeError(`the pulls share less than one ${stepRpm} rpm step (${fromRpm}..${toRpm} rpm)`)
   }
-  return pulls.map((p) => resample(p, stepRpm, fromRpm, toRpm))
+  return pulls.map(p => resample(p, stepRpm, fromRpm, toRpm))
 }
 
 function mean(values: number[]): number {
@@ -43,29 +43,29 @@ function mean(values: number[]): number {
  * Mean of repeat pulls on the grid all of them cover. spreadPct is the largest, over
  * that grid, of (max - min) / mean of power across the pulls, in percent.
  */
-export function averagePulls(pulls: readonly (readonly PullPoint[])[], stepRpm = DEFAULT_STEP_RPM): { points: PullPoint[]; spreadPct: number } {
+export function averagePulls(pulls: readonly (readonly PullPoint[])[], stepRpm = DEFAULT_STEP_RPM): { points: PullPoint[], spreadPct: number } {
   const grids = onSharedGrid(pulls, stepRpm)
   const first = grids[0] ?? []
   let spreadPct = 0
   const points = first.map((p0, i) => {
-    const at = grids.map((g) => g[i] ?? p0)
-    const powers = at.map((p) => p.powerHp)
+    const at = grids.map(g => g[i] ?? p0)
+    const powers = at.map(p => p.powerHp)
     const meanHp = mean(powers)
     if (meanHp > 0) spreadPct = Math.max(spreadPct, ((Math.max(...powers) - Math.min(...powers)) / meanHp) * 100)
-    const point: PullPoint = { rpm: p0.rpm, torqueLbFt: mean(at.map((p) => p.torqueLbFt)), powerHp: meanHp }
-    const vacuums = at.map((p) => p.vacuumInHg)
-    if (vacuums.every((v) => v !== undefined)) point.vacuumInHg = mean(vacuums as number[])
-    const afrs = at.map((p) => p.afr)
-    if (afrs.every((v) => v !== undefined)) point.afr = mean(afrs as number[])
+    const point: PullPoint = { rpm: p0.rpm, torqueLbFt: mean(at.map(p => p.torqueLbFt)), powerHp: meanHp }
+    const vacuums = at.map(p => p.vacuumInHg)
+    if (vacuums.every(v => v !== undefined)) point.vacuumInHg = mean(vacuums as number[])
+    const afrs = at.map(p => p.afr)
+    if (afrs.every(v => v !== undefined)) point.afr = mean(afrs as number[])
     return point
   })
   return { points, spreadPct }
 }
 
 /** Where d changes sign along the rows: r = r1 + (r2 - r1) x d1 / (d1 - d2). A run of exact zeros counts once, at its middle. */
-export function findCrossings(rows: readonly { rpm: number; d: number }[]): number[] {
+export function findCrossings(rows: readonly { rpm: number, d: number }[]): number[] {
   const out: number[] = []
-  let last: { rpm: number; d: number; index: number } | undefined
+  let last: { rpm: number, d: number, index: number } | undefined
   rows.forEach((row, index) => {
     if (row.d === 0 || !Number.isFinite(row.d)) return
     if (last && Math.sign(last.d) !== Math.sign(row.d)) {
@@ -88,7 +88,7 @@ function peakGain(baseline: readonly PullPoint[], candidate: readonly PullPoint[
   return { baseline: b, candidate: c, gain, gainPct: (gain / b.value) * 100 }
 }
 
-function trapezoidMean(rows: readonly { rpm: number; d: number }[]): number {
+function trapezoidMean(rows: readonly { rpm: number, d: number }[]): number {
   let area = 0
   for (let i = 1; i < rows.length; i++) {
     const a = rows[i - 1]
@@ -100,7 +100,7 @@ function trapezoidMean(rows: readonly { rpm: number; d: number }[]): number {
   return first && last && last.rpm > first.rpm ? area / (last.rpm - first.rpm) : (first?.d ?? 0)
 }
 
-function extreme(rows: readonly { rpm: number; d: number }[], pick: 'max' | 'min'): AtRpm {
+function extreme(rows: readonly { rpm: number, d: number }[], pick: 'max' | 'min'): AtRpm {
   let best: AtRpm = { value: pick === 'max' ? -Infinity : Infinity, rpm: Number.NaN }
   for (const r of rows) if (pick === 'max' ? r.d > best.value : r.d < best.value) best = { value: r.d, rpm: r.rpm }
   return best
@@ -109,17 +109,17 @@ function extreme(rows: readonly { rpm: number; d: number }[], pick: 'max' | 'min
 export type PullComparison = {
   peakPower: PeakGain
   peakTorque: PeakGain
-  averageGain: { powerHp: number; torqueLbFt: number; fromRpm: number; toRpm: number }
+  averageGain: { powerHp: number, torqueLbFt: number, fromRpm: number, toRpm: number }
   /** Largest gain on the grid and where. */
-  maxGain: { powerHp: AtRpm; torqueLbFt: AtRpm }
+  maxGain: { powerHp: AtRpm, torqueLbFt: AtRpm }
   /** Smallest gain on the grid and where: negative when the candidate loses there. */
-  maxLoss: { powerHp: AtRpm; torqueLbFt: AtRpm }
-  crossovers: { powerRpm: number[]; torqueRpm: number[] }
+  maxLoss: { powerHp: AtRpm, torqueLbFt: AtRpm }
+  crossovers: { powerRpm: number[], torqueRpm: number[] }
   byRpm: {
     rpm: number
-    baseline: { powerHp: number; torqueLbFt: number }
-    candidate: { powerHp: number; torqueLbFt: number }
-    gain: { powerHp: number; torqueLbFt: number }
+    baseline: { powerHp: number, torqueLbFt: number }
+    candidate: { powerHp: number, torqueLbFt: number }
+    gain: { powerHp: number, torqueLbFt: number }
   }[]
 }
 
@@ -144,8 +144,8 @@ export function comparePulls(
       gain: { powerHp: cp.powerHp - bp.powerHp, torqueLbFt: cp.torqueLbFt - bp.torqueLbFt },
     }
   })
-  const power = byRpm.map((r) => ({ rpm: r.rpm, d: r.gain.powerHp }))
-  const torque = byRpm.map((r) => ({ rpm: r.rpm, d: r.gain.torqueLbFt }))
+  const power = byRpm.map(r => ({ rpm: r.rpm, d: r.gain.powerHp }))
+  const torque = byRpm.map(r => ({ rpm: r.rpm, d: r.gain.torqueLbFt }))
   return {
     peakPower: peakGain(baseline, candidate, 'powerHp'),
     peakTorque: peakGain(baseline, candidate, 'torqueLbFt'),

@@ -95,7 +95,7 @@ void _allListed
 void _idsListed
 
 export function correctionStandardInfo(standard: CorrectionStandard): CorrectionStandardInfo {
-  const info = CORRECTION_STANDARDS.find((s) => s.id === standard)
+  const info = CORRECTION_STANDARDS.find(s => s.id === standard)
   if (!info) throw new RangeError(`unknown correction standard "${String(standard)}"`)
   return info
 }
@@ -149,7 +149,8 @@ export function correctionProblems(standard: CorrectionStandard, weather: Weathe
   let cf: number
   try {
     cf = correctionFactor(standard, weather)
-  } catch (e) {
+  }
+  catch (e) {
     return [{ severity: 'error', message: e instanceof Error ? e.message : String(e) }]
   }
   const problems: Problem[] = []
@@ -172,5 +173,5 @@ export function correctionProblems(standard: CorrectionStandard, weather: Weathe
 /** Corrected copy of a pull: torque and power x CF; vacuum and AFR are not corrected. */
 export function applyCorrection(points: readonly PullPoint[], standard: CorrectionStandard, weather: Weather): PullPoint[] {
   const cf = correctionFactor(standard, weather)
-  return points.map((p) => ({ ...p, torqueLbFt: p.torqueLbFt * cf, powerHp: p.powerHp * cf }))
+  return points.map(p => ({ ...p, torqueLbFt: p.torqueLbFt * cf, powerHp: p.powerHp * cf }))
 }

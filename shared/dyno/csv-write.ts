@@ -17,5 +17,5 @@ export function csvCell(cell: CsvCell, delimiter = ','): string {
 
 export function writeCsv(rows: readonly (readonly CsvCell[])[], opts: { delimiter?: ',' | ';' | '\t' } = {}): string {
   const delimiter = opts.delimiter ?? ','
-  return rows.map((row) => row.map((c) => csvCell(c, delimiter)).join(delimiter)).join('\r\n') + '\r\n'
+  return rows.map(row => row.map(c => csvCell(c, delimiter)).join(delimiter)).join('\r\n') + '\r\n'
 }

@@ -41,9 +41,9 @@ export type ParsedPull = {
   problems: Problem[]
   weather?: Partial<Weather>
   /** Units found in the file (the points themselves are always lb-ft, hp, inHg). */
-  units: { torque?: TorqueUnit; power?: PowerUnit; vacuum?: VacuumUnit }
+  units: { torque?: TorqueUnit, power?: PowerUnit, vacuum?: VacuumUnit }
   /** Every header with the role it was read as. */
-  columns: { header: string; role: ColumnRole }[]
+  columns: { header: string, role: ColumnRole }[]
   /** Headers kept as extra channels (in points[i].extra). */
   extraColumns: string[]
   delimiter: ',' | ';' | '\t'
@@ -81,7 +81,7 @@ const AFR_NAMES = new Set(['afr', 'af', 'airfuel', 'airfuelratio', 'afratio'])
 const DEFAULT_ROLE = { torque: 'torque-lb-ft', power: 'power-hp', vacuum: 'vacuum-inhg' } as const
 
 type Kind = 'torque' | 'power' | 'vacuum'
-type Recognised = { role: ColumnRole; assumedUnit?: boolean } | { role: 'ignore'; badUnit: { kind: Kind; unit: string } }
+type Recognised = { role: ColumnRole, assumedUnit?: boolean } | { role: 'ignore', badUnit: { kind: Kind, unit: string } }
 
 function recognise(header: string): Recognised {
   const m = /^(.*?)\s*[([]\s*([^)\]]*?)\s*[)\]]\s*$/.exec(header.trim())
@@ -149,12 +149,14 @@ function readWeatherLine(raw: string, line: number, weather: Partial<Weather>, p
     if (converted === undefined) return warn(`barometric pressure "${m[2]}" needs a unit (inHg, kPa or mbar); it is not used`)
     if (!(converted > 0)) return void problems.push({ severity: 'error', line, message: `barometric pressure ${m[2]} is impossible` })
     if (converted < 15 || converted > 32.5) warn(`barometric pressure ${m[2]} is far outside the usual range`)
-  } else if (field === 'airTempF') {
+  }
+  else if (field === 'airTempF') {
     converted = unit === 'f' || unit === 'degf' ? value : unit === 'c' || unit === 'degc' ? cToF(value) : undefined
     if (converted === undefined) return warn(`air temperature "${m[2]}" needs a unit (F or C); it is not used`)
     if (converted <= -459.67) return void problems.push({ severity: 'error', line, message: `air temperature ${m[2]} is below absolute zero` })
     if (converted < -40 || converted > 140) warn(`air temperature ${m[2]} is far outside the usual range`)
-  } else {
+  }
+  else {
     if (unit !== '' && unit !== '%' && unit !== 'pct' && unit !== 'percent') {
       return warn(`humidity "${m[2]}" should be a relative humidity in %; it is not used`)
     }
@@ -202,7 +204,7 @@ type Row = {
   extra?: Record<string, number>
 }
 
-type Column = { index: number; header: string; role: ColumnRole }
+type Column = { index: number, header: string, role: ColumnRole }
 
 export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull {
   const problems: Problem[] = []
@@ -218,7 +220,7 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
       order: 'ascending',
       ...partial,
       problems,
-      ok: !problems.some((p) => p.severity === 'error'),
+      ok: !problems.some(p => p.severity === 'error'),
     }
     if (Object.keys(weather).length > 0) out.weather = weather
     return out
@@ -255,7 +257,7 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
 
   const delimiter = detectDelimiter(headerText)
   const mapping = new Map(Object.entries(opts.columns ?? {}).map(([h, r]) => [norm(h), r]))
-  const parsed: { line: number; cells: string[] }[] = []
+  const parsed: { line: number, cells: string[] }[] = []
   const csvText = body.slice(offset)
   // papaparse's cursor is where the row ended; the next row starts there.
   let rowStart = 0
@@ -276,7 +278,7 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
   })
 
   const headerCells = parsed[0]?.cells ?? []
-  if (headerCells.length > 0 && headerCells.every((c) => c.trim() === '' || readNumber(c, true) !== undefined)) {
+  if (headerCells.length > 0 && headerCells.every(c => c.trim() === '' || readNumber(c, true) !== undefined)) {
     problems.push({ severity: 'error', line: headerLine, message: 'the first row holds numbers, not column names: add a header row' })
     return result({ delimiter, headerLine })
   }
@@ -299,7 +301,8 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
         column: header,
         message: `unit "${rec.badUnit.unit}" of ${rec.badUnit.kind} column "${header}" is not one Pullsheet reads (${KNOWN_UNITS[rec.badUnit.kind]}); map the column or fix its header`,
       })
-    } else if (rec.assumedUnit) {
+    }
+    else if (rec.assumedUnit) {
       problems.push({
         severity: 'warning',
         line: headerLine,
@@ -319,13 +322,14 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
           message: `"${first.header}" is already the ${group} column; "${header}" is kept as an extra channel`,
         })
         role = 'extra'
-      } else taken.set(group, { index, header, role })
+      }
+      else taken.set(group, { index, header, role })
     }
     columns.push({ index, header, role })
   })
   const roleColumns = columns.map(({ header, role }) => ({ header, role }))
-  const extraColumns = columns.filter((c) => c.role === 'extra')
-  const base = { delimiter, headerLine, columns: roleColumns, extraColumns: extraColumns.map((c) => c.header) }
+  const extraColumns = columns.filter(c => c.role === 'extra')
+  const base = { delimiter, headerLine, columns: roleColumns, extraColumns: extraColumns.map(c => c.header) }
 
   const rpmCol = taken.get('rpm')
   const torqueCol = taken.get('torque')
@@ -343,7 +347,7 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
   if (!rpmCol || (!torqueCol && !powerCol)) return result({ ...base, units })
 
   // ---- rows ----
-  const decimalComma = delimiter !== ',' && parsed.some((r) => r.cells.some((c) => DECIMAL_COMMA.test(c.trim())))
+  const decimalComma = delimiter !== ',' && parsed.some(r => r.cells.some(c => DECIMAL_COMMA.test(c.trim())))
   const toLbFt = (v: number): number => (torqueCol?.role === 'torque-n-m' ? nmToLbFt(v) : v)
   const toHp = (v: number): number => (powerCol?.role === 'power-kw' ? kwToHp(v) : powerCol?.role === 'power-ps' ? psToHp(v) : v)
   const toInHg = (v: number): number => (vacuumCol?.role === 'vacuum-kpa' ? kPaToInHg(v) : v)
@@ -351,7 +355,7 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
   const rows: Row[] = []
 
   for (const { line: rowLine, cells } of parsed.slice(1)) {
-    if (cells.every((c) => c.trim() === '')) continue
+    if (cells.every(c => c.trim() === '')) continue
     if ((cells[0] ?? '').trim().startsWith('#')) continue
     let bad = false
     const read = (col: Column | undefined): number | undefined => {
@@ -422,7 +426,7 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
   // ---- order, duplicates ----
   let up = 0
   let down = 0
-  let firstBreak: { line: number; from: number; to: number } | undefined
+  let firstBreak: { line: number, from: number, to: number } | undefined
   for (let i = 1; i < rows.length; i++) {
     const a = rows[i - 1]
     const b = rows[i]
@@ -439,7 +443,7 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
       message: `rows change direction here (${firstBreak.from} to ${firstBreak.to} rpm): more than one sweep in one file? The rows are sorted by rpm`,
     })
   }
-  const sorted = rows.map((r, i) => ({ r, i })).sort((a, b) => a.r.rpm - b.r.rpm || a.i - b.i).map((x) => x.r)
+  const sorted = rows.map((r, i) => ({ r, i })).sort((a, b) => a.r.rpm - b.r.rpm || a.i - b.i).map(x => x.r)
 
   const groups: Row[][] = []
   for (const r of sorted) {
@@ -448,31 +452,32 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
     if (g && head && head.rpm === r.rpm) {
       g.push(r)
       problems.push({ severity: 'warning', line: r.line, message: `${r.rpm} rpm appears again (first at line ${head.line}); the rows are averaged` })
-    } else groups.push([r])
+    }
+    else groups.push([r])
   }
 
   const avg = (g: Row[], pick: (r: Row) => number | undefined): number | undefined => {
     const vs = g.map(pick)
-    if (vs.some((v) => v === undefined)) return undefined
+    if (vs.some(v => v === undefined)) return undefined
     return (vs as number[]).reduce((a, b) => a + b, 0) / vs.length
   }
   const lines: number[] = []
   const points: PullPoint[] = groups.map((g) => {
     const head = g[0] as Row
-    const torque = avg(g, (r) => r.torque)
-    const power = avg(g, (r) => r.power)
+    const torque = avg(g, r => r.torque)
+    const power = avg(g, r => r.power)
     const p: PullPoint = {
       rpm: head.rpm,
       torqueLbFt: torque ?? torqueLbFt(power ?? 0, head.rpm),
       powerHp: power ?? powerHp(torque ?? 0, head.rpm),
     }
-    const vacuum = avg(g, (r) => r.vacuum)
+    const vacuum = avg(g, r => r.vacuum)
     if (vacuum !== undefined) p.vacuumInHg = vacuum
-    const afrAvg = avg(g, (r) => r.afr)
+    const afrAvg = avg(g, r => r.afr)
     if (afrAvg !== undefined) p.afr = afrAvg
-    const extraNames = new Set(g.flatMap((r) => Object.keys(r.extra ?? {})))
+    const extraNames = new Set(g.flatMap(r => Object.keys(r.extra ?? {})))
     for (const name of extraNames) {
-      const vs = g.map((r) => r.extra?.[name]).filter((v): v is number => v !== undefined)
+      const vs = g.map(r => r.extra?.[name]).filter((v): v is number => v !== undefined)
       ;(p.extra ??= {})[name] = vs.reduce((a, b) => a + b, 0) / vs.length
     }
     lines.push(head.line)

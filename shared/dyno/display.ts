@@ -8,7 +8,7 @@ import { ascending } from './resample'
 
 // Buckets are chosen on power, the curve a reader looks at first; torque shares
 // the same rpm samples, so both lines are drawn from the same points.
-const lttbOnPower = createLTTB<PullPoint>({ x: (p) => p.rpm, y: (p) => p.powerHp })
+const lttbOnPower = createLTTB<PullPoint>({ x: p => p.rpm, y: p => p.powerHp })
 
 /** At most maxPoints of the pull (its first and last always kept), for graphs. */
 export function downsampleForDisplay(points: readonly PullPoint[], maxPoints: number): PullPoint[] {

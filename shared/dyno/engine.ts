@@ -6,7 +6,7 @@ function positive(name: string, value: number): void {
 }
 
 /** Swept volume: pi / 4 x bore^2 x stroke x cylinders, cubic inches. */
-export function displacementCi({ boreIn, strokeIn, cylinders }: { boreIn: number; strokeIn: number; cylinders: number }): number {
+export function displacementCi({ boreIn, strokeIn, cylinders }: { boreIn: number, strokeIn: number, cylinders: number }): number {
   positive('bore', boreIn)
   positive('stroke', strokeIn)
   if (!Number.isInteger(cylinders) || cylinders < 1) throw new RangeError(`cylinders must be a whole number from 1 (got ${cylinders})`)

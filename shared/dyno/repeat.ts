@@ -9,7 +9,7 @@ import { DEFAULT_STEP_RPM, onSharedGrid } from './compare'
 export const REPEATABILITY_PCT = 1
 
 export type RepeatSpread = {
-  byRpm: { rpm: number; minHp: number; maxHp: number; meanHp: number; spreadPct: number }[]
+  byRpm: { rpm: number, minHp: number, maxHp: number, meanHp: number, spreadPct: number }[]
   /** Largest spread on the grid, percent (the same figure averagePulls gives). */
   spreadPct: number
   rpmOfLargestSpread: number
@@ -18,7 +18,7 @@ export type RepeatSpread = {
    * difference over the grid, percent of that mean). Needs 3 pulls: with 2 there is
    * no telling which one is off.
    */
-  outlier: { index: number; deviationPct: number; beyondRepeatability: boolean } | null
+  outlier: { index: number, deviationPct: number, beyondRepeatability: boolean } | null
 }
 
 export function repeatSpread(pulls: readonly (readonly PullPoint[])[], stepRpm = DEFAULT_STEP_RPM): RepeatSpread {
@@ -27,7 +27,7 @@ export function repeatSpread(pulls: readonly (readonly PullPoint[])[], stepRpm =
   let spreadPct = 0
   let rpmOfLargestSpread = first[0]?.rpm ?? Number.NaN
   const byRpm = first.map((p0, i) => {
-    const powers = grids.map((g) => g[i]?.powerHp ?? Number.NaN)
+    const powers = grids.map(g => g[i]?.powerHp ?? Number.NaN)
     const minHp = Math.min(...powers)
     const maxHp = Math.max(...powers)
     const meanHp = powers.reduce((a, b) => a + b, 0) / powers.length

@@ -42,7 +42,7 @@ export function gaussian(random: () => number): number {
   return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v)
 }
 
-export type TorqueModel = { peakTorqueLbFt: number; peakTorqueRpm: number; widthLowRpm: number; widthHighRpm: number }
+export type TorqueModel = { peakTorqueLbFt: number, peakTorqueRpm: number, widthLowRpm: number, widthHighRpm: number }
 
 /** The noiseless standard-day torque of the model at an rpm. */
 export function modelTorqueLbFt(model: TorqueModel, rpm: number): number {
@@ -82,7 +82,7 @@ export function syntheticWeather(random: () => number): Weather {
   }
 }
 
-export type SyntheticPull = { points: PullPoint[]; weather: Weather; csv: string }
+export type SyntheticPull = { points: PullPoint[], weather: Weather, csv: string }
 
 export function syntheticPull(opts: SyntheticPullOptions): SyntheticPull {
   const random = mulberry32(opts.seed)
@@ -121,7 +121,7 @@ export function syntheticPull(opts: SyntheticPullOptions): SyntheticPull {
   ]
   const table = writeCsv([
     ['RPM', 'Torque (lb-ft)', 'Power (hp)', 'Vacuum (inHg)', 'AFR'],
-    ...points.map((p) => [p.rpm, p.torqueLbFt, p.powerHp, p.vacuumInHg, p.afr]),
+    ...points.map(p => [p.rpm, p.torqueLbFt, p.powerHp, p.vacuumInHg, p.afr]),
   ])
   return { points, weather, csv: `${lines.join('\r\n')}\r\n${table}` }
 }

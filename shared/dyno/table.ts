@@ -28,13 +28,13 @@ export type RowGains = {
   averagePowerPct: number
   averageTorqueLbFt: number
   averageTorquePct: number
-  maxGain: { powerHp: AtRpm; torqueLbFt: AtRpm }
-  maxLoss: { powerHp: AtRpm; torqueLbFt: AtRpm }
-  crossovers: { powerRpm: number[]; torqueRpm: number[] }
+  maxGain: { powerHp: AtRpm, torqueLbFt: AtRpm }
+  maxLoss: { powerHp: AtRpm, torqueLbFt: AtRpm }
+  crossovers: { powerRpm: number[], torqueRpm: number[] }
   /** Change of idle vacuum, inHg, when both setups have one. */
   idleVacuumInHg?: number
   /** Gains no bigger than the larger spread of the two setups' pulls; null when neither has a spread. */
-  withinRepeatability: { peakPower: boolean | null; peakTorque: boolean | null; averagePower: boolean | null; averageTorque: boolean | null }
+  withinRepeatability: { peakPower: boolean | null, peakTorque: boolean | null, averagePower: boolean | null, averageTorque: boolean | null }
 }
 
 export type ResultsRow = {
@@ -50,7 +50,7 @@ export type ResultsRow = {
   vsPrevious?: RowGains
 }
 
-export type ResultsTable = { band: RpmRange; rows: ResultsRow[] }
+export type ResultsTable = { band: RpmRange, rows: ResultsRow[] }
 
 function gains(a: SetupResult, rowA: ResultsRow, b: SetupResult, rowB: ResultsRow, stepRpm: number): RowGains {
   const cmp = comparePulls(a.points, b.points, { stepRpm })
@@ -87,11 +87,11 @@ function gains(a: SetupResult, rowA: ResultsRow, b: SetupResult, rowB: ResultsRo
 /** Rows for N setups, the first being the baseline. */
 export function resultsTable(
   setups: readonly SetupResult[],
-  opts: { stepRpm?: number; fractionOfPeak?: number } = {},
+  opts: { stepRpm?: number, fractionOfPeak?: number } = {},
 ): ResultsTable {
   if (setups.length === 0) throw new RangeError('a results table needs at least one setup')
   const stepRpm = opts.stepRpm ?? DEFAULT_STEP_RPM
-  const band = sharedRange(setups.map((s) => s.points))
+  const band = sharedRange(setups.map(s => s.points))
   const rows: ResultsRow[] = setups.map((s) => {
     const row: ResultsRow = {
       name: s.name,
@@ -123,7 +123,7 @@ export function resultsTableCsv(table: ResultsTable, opts: { decimals?: number }
   const d = opts.decimals ?? 1
   const num = (v: number | undefined, places = d): CsvCell => (v === undefined || !Number.isFinite(v) ? '' : Number(reportFixed(v, places)))
   const flag = (v: boolean | null | undefined): CsvCell => (v === true ? 'within repeatability' : v === false ? 'beyond repeatability' : '')
-  const rpms = (list: number[] | undefined): CsvCell => (list ?? []).map((r) => reportFixed(r, 0)).join(' / ')
+  const rpms = (list: number[] | undefined): CsvCell => (list ?? []).map(r => reportFixed(r, 0)).join(' / ')
   const band = `${reportFixed(table.band.fromRpm, 0)}-${reportFixed(table.band.toRpm, 0)} rpm`
   const header: CsvCell[] = [
     'Setup',

@@ -14,7 +14,7 @@ export type PullPoint = {
 }
 
 /** Weather of one pull: barometric (total) pressure, intake air temperature, relative humidity. */
-export type Weather = { baroInHg: number; airTempF: number; humidityPct: number }
+export type Weather = { baroInHg: number, airTempF: number, humidityPct: number }
 
 export type CorrectionStandard = 'sae-j1349-1990' | 'iso-1585' | 'std-60f' | 'din-70020' | 'none'
 
@@ -27,11 +27,11 @@ export type Problem = {
   message: string
 }
 
-export type AtRpm = { value: number; rpm: number }
+export type AtRpm = { value: number, rpm: number }
 
-export type PeakGain = { baseline: AtRpm; candidate: AtRpm; gain: number; gainPct: number }
+export type PeakGain = { baseline: AtRpm, candidate: AtRpm, gain: number, gainPct: number }
 
-export type RpmRange = { fromRpm: number; toRpm: number }
+export type RpmRange = { fromRpm: number, toRpm: number }
 
 export type TorqueUnit = 'lb-ft' | 'N-m'
 export type PowerUnit = 'hp' | 'kW' | 'PS'

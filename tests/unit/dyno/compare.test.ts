@@ -52,7 +52,7 @@ describe('comparePulls on polynomial curves with exact answers', () => {
       expect(cmp.peakPower.candidate.rpm).toBe(6100)
       expect(cmp.peakPower.gain).toBeCloseTo((6100 * candT(6100) - 6000 * baseT(6000)) / K, 9)
       // the grid: multiples of 100 from 2500 to 7000, every one a sample point here
-      expect(cmp.byRpm.map((r) => r.rpm)).toEqual(Array.from({ length: 46 }, (_, i) => 2500 + 100 * i))
+      expect(cmp.byRpm.map(r => r.rpm)).toEqual(Array.from({ length: 46 }, (_, i) => 2500 + 100 * i))
       for (const row of cmp.byRpm) {
         expect(row.gain.torqueLbFt).toBeCloseTo(alpha + beta * row.rpm, 9)
         expect(row.candidate.powerHp).toBeCloseTo((row.rpm * candT(row.rpm)) / K, 9)
@@ -184,12 +184,12 @@ describe('power band and band averages (check-sources "Curves")', () => {
     // (155 + 500)/2 x 3450 + (500 + 416)/2 x 420 = 1,322,235 hp-rpm over 3870 rpm
     expect(averageOver(triangle(100), 'powerHp', 2550, 6420)).toBeCloseTo(1322235 / 3870, 9)
     // ...not the plain mean of the samples inside the band
-    const inside = triangle(100).filter((p) => p.rpm >= 2550 && p.rpm <= 6420)
+    const inside = triangle(100).filter(p => p.rpm >= 2550 && p.rpm <= 6420)
     const plain = inside.reduce((s, p) => s + p.powerHp, 0) / inside.length
     expect(Math.abs(plain - 1322235 / 3870)).toBeGreaterThan(0.5)
   })
   it('averages are independent of sampling density', () => {
-    const dense = [...triangle(10).filter((p) => p.rpm < 4000), ...triangle(500).filter((p) => p.rpm >= 4000)]
+    const dense = [...triangle(10).filter(p => p.rpm < 4000), ...triangle(500).filter(p => p.rpm >= 4000)]
     expect(averageOver(dense, 'powerHp', 2000, 7000)).toBeCloseTo(averageOver(triangle(100), 'powerHp', 2000, 7000), 9)
   })
   it('refuses a band outside the pull', () => {

@@ -87,7 +87,7 @@ describe('impossible weather is a RangeError with a clear message', () => {
 describe('correction warnings', () => {
   it('day B is outside 0.90..1.10 (common practice) and outside ISO 0.93..1.07 (from memory)', () => {
     const iso = correctionProblems('iso-1585', days[1]![1])
-    expect(iso.map((p) => p.severity)).toEqual(['warning', 'warning'])
+    expect(iso.map(p => p.severity)).toEqual(['warning', 'warning'])
     expect(iso[0]!.message).toMatch(/0\.93 to 1\.07/)
     expect(iso[1]!.message).toMatch(/0\.90 to 1\.10/)
     expect(correctionProblems('sae-j1349-1990', days[1]![1])).toHaveLength(1)
@@ -109,7 +109,7 @@ describe('applyCorrection and the list of standards', () => {
     expect(applyCorrection(points, 'none', days[0]![1])).toEqual(points)
   })
   it('lists every standard once, ids matching CORRECTION_STANDARD_IDS, with reference conditions', () => {
-    expect(CORRECTION_STANDARDS.map((s) => s.id)).toEqual([...CORRECTION_STANDARD_IDS])
+    expect(CORRECTION_STANDARDS.map(s => s.id)).toEqual([...CORRECTION_STANDARD_IDS])
     expect(correctionStandardInfo('std-60f').referencePressureKPa).toBeCloseTo(101.32, 2)
     expect(correctionStandardInfo('din-70020').pressureBasis).toBe('total')
     expect(() => correctionStandardInfo('sae-j1349-2004' as never)).toThrow(RangeError)

@@ -12,7 +12,7 @@ const rows = (from = 2500, to = 6000, step = 250, sep = ','): string[] => {
 }
 const HEADER = 'RPM,Torque (lb-ft),Power (hp)'
 const file = (lines: string[]): string => lines.join('\n') + '\n'
-const only = (problems: Problem[], severity: Problem['severity']): Problem[] => problems.filter((p) => p.severity === severity)
+const only = (problems: Problem[], severity: Problem['severity']): Problem[] => problems.filter(p => p.severity === severity)
 
 describe('parsePullCsv: a good file', () => {
   const text = file(['# baro: 29.31 inHg', '# air temp: 78 F', '# humidity: 41 %', '# note: baseline, pull 2', '', HEADER, ...rows()])
@@ -27,7 +27,7 @@ describe('parsePullCsv: a good file', () => {
     expect(r.headerLine).toBe(6)
     expect(r.delimiter).toBe(',')
     expect(r.order).toBe('ascending')
-    expect(r.columns.map((c) => c.role)).toEqual(['rpm', 'torque-lb-ft', 'power-hp'])
+    expect(r.columns.map(c => c.role)).toEqual(['rpm', 'torque-lb-ft', 'power-hp'])
   })
 })
 
@@ -61,11 +61,11 @@ describe('parsePullCsv: separators, decimal comma, units, weather units', () => 
     expect(p.points[0]?.powerHp).toBeCloseTo(psToHp(Number((powerHp(400, 2500) / 0.98632).toFixed(2))), 9)
     expect(p.points[0]?.torqueLbFt).toBeCloseTo((p.points[0]!.powerHp * 5252.113122) / 2500, 4) // torque from power
     expect(p.weather?.baroInHg).toBeCloseTo(29.766, 3)
-    expect(parsePullCsv(file(['RPM,Torque [Nm]', ...rows().map((l) => l.split(',').slice(0, 2).join(','))])).units.torque).toBe('N-m')
-    expect(parsePullCsv(file(['RPM,Torque (ft-lb)', ...rows().map((l) => l.split(',').slice(0, 2).join(','))])).units.torque).toBe('lb-ft')
+    expect(parsePullCsv(file(['RPM,Torque [Nm]', ...rows().map(l => l.split(',').slice(0, 2).join(','))])).units.torque).toBe('N-m')
+    expect(parsePullCsv(file(['RPM,Torque (ft-lb)', ...rows().map(l => l.split(',').slice(0, 2).join(','))])).units.torque).toBe('lb-ft')
   })
   it('torque only: power is computed (hp = lb-ft x rpm / 5252.113)', () => {
-    const p = parsePullCsv(file(['RPM,Torque (lb-ft)', ...rows().map((l) => l.split(',').slice(0, 2).join(','))]))
+    const p = parsePullCsv(file(['RPM,Torque (lb-ft)', ...rows().map(l => l.split(',').slice(0, 2).join(','))]))
     expect(p.points[6]?.powerHp).toBeCloseTo(powerHp(p.points[6]!.torqueLbFt, p.points[6]!.rpm), 9)
   })
   it('unknown columns are kept as extra channels and reported', () => {
@@ -90,7 +90,7 @@ describe('parsePullCsv: separators, decimal comma, units, weather units', () => 
     expect(p.problems).toEqual([{ severity: 'error', line: 4, column: 'Torque (lb-ft)', message: expect.stringMatching(/"abc"/) }])
   })
   it('a quoted cell with a line break moves later line numbers down', () => {
-    const lines = ['RPM,Torque (lb-ft),Power (hp),Note', ...rows().map((l) => `${l},`)]
+    const lines = ['RPM,Torque (lb-ft),Power (hp),Note', ...rows().map(l => `${l},`)]
     lines[2] = lines[2]!.replace(/,$/, ',"first\nsecond"')
     lines[5] = lines[5]!.replace(/^(\d+),/, '$1,x')
     const p = parsePullCsv(file(lines))
@@ -114,7 +114,7 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
     lines[4] = '3000,,230'
     lines[7] = '3750,410'
     const err = only(parsePullCsv(file(lines)).problems, 'error')
-    expect(err.map((e) => [e.severity, e.line, e.column])).toEqual([
+    expect(err.map(e => [e.severity, e.line, e.column])).toEqual([
       ['error', 5, 'Torque (lb-ft)'],
       ['error', 8, 'Power (hp)'],
     ])
@@ -134,7 +134,7 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
   })
   it('fewer than 10 points: error for the whole file', () => {
     const p = parsePullCsv(file([HEADER, ...rows(2500, 6000, 500)])) // 8 rows
-    expect(p.problems.filter((x) => /at least 10/.test(x.message))).toEqual([{ severity: 'error', message: expect.any(String) }])
+    expect(p.problems.filter(x => /at least 10/.test(x.message))).toEqual([{ severity: 'error', message: expect.any(String) }])
   })
   it('less than 1000 rpm covered: error for the whole file', () => {
     const p = parsePullCsv(file([HEADER, ...rows(3000, 3900, 50)])) // 19 rows over 900 rpm
@@ -144,7 +144,7 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
     const p = parsePullCsv(file([HEADER, ...rows().reverse()]))
     expect(p.problems).toEqual([])
     expect(p.order).toBe('descending')
-    expect(p.points.map((x) => x.rpm)).toEqual([...p.points.map((x) => x.rpm)].sort((a, b) => a - b))
+    expect(p.points.map(x => x.rpm)).toEqual([...p.points.map(x => x.rpm)].sort((a, b) => a - b))
   })
   it('rows that change direction (two sweeps in one file): warning where it turns, then sorted', () => {
     const r = rows()
@@ -157,19 +157,19 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
     const lines = [HEADER, ...rows()]
     lines.splice(5, 0, '3250,420.00,260.00') // line 6 repeats 3250 rpm (line 5)
     const p = parsePullCsv(file(lines))
-    const w = only(p.problems, 'warning').filter((x) => /appears again/.test(x.message))
+    const w = only(p.problems, 'warning').filter(x => /appears again/.test(x.message))
     expect(w).toEqual([{ severity: 'warning', line: 6, message: '3250 rpm appears again (first at line 5); the rows are averaged' }])
-    const at = p.points.find((x) => x.rpm === 3250)!
+    const at = p.points.find(x => x.rpm === 3250)!
     expect(at.torqueLbFt).toBeCloseTo((torqueAt(3250) + 420) / 2, 2)
-    expect(p.points.filter((x) => x.rpm === 3250)).toHaveLength(1)
+    expect(p.points.filter(x => x.rpm === 3250)).toHaveLength(1)
   })
   it('gap over 500 rpm: warning at the line after the gap', () => {
     const r = rows(2500, 6000, 100)
-    const p = parsePullCsv(file([HEADER, ...r.filter((l) => !/^(40|41|42|43|44|45)00,/.test(l))])) // 2500..3900 on lines 2-16, then 4600 on line 17
-    const gap = p.problems.filter((x) => /gap/.test(x.message))
+    const p = parsePullCsv(file([HEADER, ...r.filter(l => !/^(40|41|42|43|44|45)00,/.test(l))])) // 2500..3900 on lines 2-16, then 4600 on line 17
+    const gap = p.problems.filter(x => /gap/.test(x.message))
     expect(gap).toEqual([{ severity: 'warning', line: 17, message: 'gap of 700 rpm between 3900 and 4600 rpm' }])
     // exactly 500 is not a gap
-    expect(parsePullCsv(file([HEADER, ...rows(2500, 6000, 500), ...rows(6500, 7500, 500)])).problems.some((x) => /gap/.test(x.message))).toBe(false)
+    expect(parsePullCsv(file([HEADER, ...rows(2500, 6000, 500), ...rows(6500, 7500, 500)])).problems.some(x => /gap/.test(x.message))).toBe(false)
   })
   it('torque and power disagreeing by more than 1 %: one warning per line', () => {
     const lines = [HEADER, ...rows()]
@@ -177,11 +177,11 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
     lines[6] = `3750,${torqueAt(3750).toFixed(2)},${(powerHp(torqueAt(3750), 3750) * 1.009).toFixed(2)}` // 0.9 %: fine
     lines[9] = `4500,${torqueAt(4500).toFixed(2)},${(powerHp(torqueAt(4500), 4500) * 0.97).toFixed(2)}`
     const w = parsePullCsv(file(lines)).problems
-    expect(w.map((x) => [x.severity, x.line])).toEqual([['warning', 5], ['warning', 10]])
+    expect(w.map(x => [x.severity, x.line])).toEqual([['warning', 5], ['warning', 10]])
     expect(w[0]?.message).toMatch(/disagree by 4\.0 %/)
   })
   it('a spike (far from both neighbours while they agree): warning at its line', () => {
-    const lines = ['RPM,Torque (lb-ft)', ...rows(2500, 6000, 50).map((l) => l.split(',').slice(0, 2).join(','))]
+    const lines = ['RPM,Torque (lb-ft)', ...rows(2500, 6000, 50).map(l => l.split(',').slice(0, 2).join(','))]
     lines[21] = `3500,${(torqueAt(3500) * 1.12).toFixed(2)}` // line 22
     const p = parsePullCsv(file(lines))
     expect(p.problems).toEqual([{ severity: 'warning', line: 22, message: expect.stringMatching(/spike at 3500 rpm/) }])
@@ -198,7 +198,7 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
     lines[7] = '3750,410,-1'
     lines[8] = '0,410,0'
     const err = only(parsePullCsv(file(lines)).problems, 'error')
-    expect(err.map((e) => [e.line, e.column])).toEqual([
+    expect(err.map(e => [e.line, e.column])).toEqual([
       [3, 'Torque (lb-ft)'],
       [6, 'RPM'],
       [8, 'Power (hp)'],
@@ -206,13 +206,13 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
     ])
   })
   it('a torque column with no unit is read as lb-ft with a warning; an unknown unit is an error', () => {
-    const noUnit = parsePullCsv(file(['RPM,Torque', ...rows().map((l) => l.split(',').slice(0, 2).join(','))]))
+    const noUnit = parsePullCsv(file(['RPM,Torque', ...rows().map(l => l.split(',').slice(0, 2).join(','))]))
     expect(noUnit.problems).toEqual([{ severity: 'warning', line: 1, column: 'Torque', message: 'column "Torque" names no unit; read as lb-ft' }])
-    const badUnit = parsePullCsv(file(['RPM,Torque (kgm)', ...rows().map((l) => l.split(',').slice(0, 2).join(','))]))
+    const badUnit = parsePullCsv(file(['RPM,Torque (kgm)', ...rows().map(l => l.split(',').slice(0, 2).join(','))]))
     expect(badUnit.problems[0]).toMatchObject({ severity: 'error', line: 1, column: 'Torque (kgm)' })
   })
   it('a second torque column is kept as an extra channel, with a warning', () => {
-    const p = parsePullCsv(file(['RPM,Torque (lb-ft),Corrected torque (lb-ft)', ...rows().map((l) => l.split(',').slice(0, 2).join(',') + ',1')]))
+    const p = parsePullCsv(file(['RPM,Torque (lb-ft),Corrected torque (lb-ft)', ...rows().map(l => l.split(',').slice(0, 2).join(',') + ',1')]))
     expect(p.problems).toEqual([{ severity: 'warning', line: 1, column: 'Corrected torque (lb-ft)', message: expect.stringMatching(/extra channel/) }])
     expect(p.extraColumns).toEqual(['Corrected torque (lb-ft)'])
   })
@@ -222,7 +222,7 @@ describe('parsePullCsv: every bad-input rule (severity and line)', () => {
   })
   it('weather lines: impossible humidity is an error, a missing unit or odd baro a warning, each at its line', () => {
     const p = parsePullCsv(file(['# humidity: 140 %', '# baro: 29.9', '# air temp: 75 F', '# baro: 12 inHg', HEADER, ...rows()]))
-    expect(p.problems.map((x) => [x.severity, x.line])).toEqual([['error', 1], ['warning', 2], ['warning', 4]])
+    expect(p.problems.map(x => [x.severity, x.line])).toEqual([['error', 1], ['warning', 2], ['warning', 4]])
     expect(p.weather).toEqual({ airTempF: 75, baroInHg: 12 })
   })
   it('blank lines and separator-only lines are ignored but counted', () => {

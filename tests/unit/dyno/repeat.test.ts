@@ -16,7 +16,7 @@ describe('averagePulls (issue definition: mean on the shared grid; spread = max 
     const { points, spreadPct } = averagePulls([curve(0.99), curve(1), curve(1.01)])
     const one = curve(1)
     for (const p of points) {
-      const ref = one.find((q) => q.rpm === p.rpm)!
+      const ref = one.find(q => q.rpm === p.rpm)!
       expect(p.torqueLbFt).toBeCloseTo(ref.torqueLbFt, 9)
       expect(p.powerHp).toBeCloseTo(ref.powerHp, 9)
       expect(p.afr).toBeCloseTo(12.5, 9)
@@ -57,7 +57,7 @@ describe('repeatSpread: spread at each rpm and the outlier pull', () => {
     expect(repeatSpread([curve(1), curve(1.05)]).outlier).toBeNull()
   })
   it('reports where the largest spread is', () => {
-    const bent = curve(1).map((p) => (p.rpm === 5200 ? { ...p, powerHp: p.powerHp * 1.02 } : p))
+    const bent = curve(1).map(p => (p.rpm === 5200 ? { ...p, powerHp: p.powerHp * 1.02 } : p))
     const r = repeatSpread([curve(1), bent, curve(1)])
     expect(r.rpmOfLargestSpread).toBe(5200)
     expect(r.spreadPct).toBeCloseTo((0.02 / (1 + 0.02 / 3)) * 100, 6)

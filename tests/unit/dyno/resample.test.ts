@@ -26,12 +26,12 @@ describe('resample', () => {
   it('grid points on samples take the sample values exactly', () => {
     const src = line(2000, 3000, 50)
     const out = resample(src, 100)
-    expect(out.map((p) => p.rpm)).toEqual([2000, 2100, 2200, 2300, 2400, 2500, 2600, 2700, 2800, 2900, 3000])
+    expect(out.map(p => p.rpm)).toEqual([2000, 2100, 2200, 2300, 2400, 2500, 2600, 2700, 2800, 2900, 3000])
     expect(out[10]).toEqual(src[20])
   })
   it('fromRpm and toRpm narrow the grid but cannot widen it', () => {
-    expect(resample(line(2000, 6000, 10), 250, 3100, 4900).map((p) => p.rpm)).toEqual([3250, 3500, 3750, 4000, 4250, 4500, 4750])
-    expect(resample(line(2000, 3000, 10), 250, 1000, 9000).map((p) => p.rpm)).toEqual([2000, 2250, 2500, 2750, 3000])
+    expect(resample(line(2000, 6000, 10), 250, 3100, 4900).map(p => p.rpm)).toEqual([3250, 3500, 3750, 4000, 4250, 4500, 4750])
+    expect(resample(line(2000, 3000, 10), 250, 1000, 9000).map(p => p.rpm)).toEqual([2000, 2250, 2500, 2750, 3000])
   })
   it('sorts unsorted input, drops optional channels missing on either side, and refuses a zero step', () => {
     const pts: PullPoint[] = [
@@ -39,7 +39,7 @@ describe('resample', () => {
       { rpm: 2000, torqueLbFt: 380, powerHp: 144.7 },
     ]
     const [mid] = resample(pts, 1000, 2500, 2500)
-    expect(resample(pts, 500).map((p) => p.rpm)).toEqual([2000, 2500, 3000])
+    expect(resample(pts, 500).map(p => p.rpm)).toEqual([2000, 2500, 3000])
     expect(resample(pts, 500)[1]?.torqueLbFt).toBeCloseTo(390, 9)
     expect(resample(pts, 500)[1]?.vacuumInHg).toBeUndefined()
     expect(mid).toBeUndefined() // 2500 is not a multiple of 1000

@@ -85,11 +85,11 @@ describe('resultsTable: rows vs baseline and vs previous (check-sources "Curves"
 
 describe('CSV writer (RFC 4180 quoting; formula-injection guard, common practice)', () => {
   it('escapes text cells that begin with = + - @ (or tab, CR) so a spreadsheet shows them as text', () => {
-    expect(csvCell('=SUM(A1:A9)')).toBe("'=SUM(A1:A9)")
-    expect(csvCell('+1 cam')).toBe("'+1 cam")
-    expect(csvCell('-2 deg timing')).toBe("'-2 deg timing")
-    expect(csvCell('@home')).toBe("'@home")
-    expect(csvCell('\tx')).toBe("'\tx")
+    expect(csvCell('=SUM(A1:A9)')).toBe('\'=SUM(A1:A9)')
+    expect(csvCell('+1 cam')).toBe('\'+1 cam')
+    expect(csvCell('-2 deg timing')).toBe('\'-2 deg timing')
+    expect(csvCell('@home')).toBe('\'@home')
+    expect(csvCell('\tx')).toBe('\'\tx')
   })
   it('quotes cells with the delimiter, quotes, line breaks or outer spaces, doubling quotes', () => {
     expect(csvCell('a,b')).toBe('"a,b"')
@@ -108,7 +108,7 @@ describe('CSV writer (RFC 4180 quoting; formula-injection guard, common practice
     expect(csv).toContain(`"'=HYPERLINK(""http://x"",""click"")"`)
     expect(csv).toContain(`"'-1, the ""big"" one"`)
     // papaparse (via our reader's CSV level) splits it into the same number of columns on every line
-    const parsed = parsePullCsv(csv, { columns: { Setup: 'extra', 'Peak power at (rpm)': 'rpm', 'Peak power (hp)': 'power-hp' } })
+    const parsed = parsePullCsv(csv, { columns: { 'Setup': 'extra', 'Peak power at (rpm)': 'rpm', 'Peak power (hp)': 'power-hp' } })
     expect(parsed.columns).toHaveLength(25)
   })
 })

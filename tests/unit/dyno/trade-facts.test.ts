@@ -14,7 +14,7 @@ describe('facts of the trade (common practice)', () => {
       peakTorqueLbFt: 480, peakTorqueRpm: 4600, widthLowRpm: 2800, widthHighRpm: 2300,
       weather: { baroInHg: 29.92, airTempF: 60, humidityPct: 0 }, standard: 'none', decimals: 6,
     })
-    const crossings = findCrossings(points.map((p) => ({ rpm: p.rpm, d: p.powerHp - p.torqueLbFt })))
+    const crossings = findCrossings(points.map(p => ({ rpm: p.rpm, d: p.powerHp - p.torqueLbFt })))
     expect(crossings).toHaveLength(1)
     expect(Math.abs(crossings[0]! - 5252.11)).toBeLessThan(0.5)
   })
@@ -67,7 +67,7 @@ describe('facts of the trade (common practice)', () => {
       { name: 'Cam 3, 248 deg at 0.050', durationDeg: 248, idleVacuumInHg: 6.9 },
     ]
     const table = resultsTable(cams.map((cam, i) => ({ name: cam.name, points: curve(1 + 0.03 * i), idleVacuumInHg: cam.idleVacuumInHg })))
-    const vac = table.rows.map((r) => r.idleVacuumInHg!)
+    const vac = table.rows.map(r => r.idleVacuumInHg!)
     expect(vac).toEqual([14.3, 11.5, 6.9])
     for (let i = 1; i < vac.length; i++) expect(vac[i]!).toBeLessThan(vac[i - 1]!)
     expect(vac[1]).toBeGreaterThan(11.2) // "mid-11"
