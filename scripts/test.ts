@@ -24,7 +24,8 @@ async function vitest(project: string, env: Record<string, string> = {}) {
   if (only.length && !only.includes(project)) return
   const report = join(ROOT, '.data', 'test', `vitest-${project}.json`)
   rmSync(report, { force: true })
-  await step(`${project} tests`, bin('vitest'), ['run', '--project', project, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`], env)
+  const serial = project === 'unit' ? [] : ['--no-file-parallelism'] // they share one database and server
+  await step(`${project} tests`, bin('vitest'), ['run', '--project', project, ...serial, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`], env)
   if (existsSync(report)) {
     const r = JSON.parse(readFileSync(report, 'utf8')) as { numPassedTests: number, numFailedTests: number, numPendingTests: number, numTodoTests: number }
     totals.passed += r.numPassedTests

@@ -22,9 +22,9 @@ export async function assertLoginAllowed(event: H3Event, email: string, ip: stri
     { n: Number(byIp?.n ?? 0), first: byIp?.first, max: MAX_PER_IP },
   ].filter(b => b.n >= b.max)
   if (blocked.length === 0) return
-  const firstMs = Math.min(...blocked.map(b => new Date(b.first as string | Date).getTime()))
+  const firstMs = Math.min(...blocked.map(b => new Date(b.first as unknown as string).getTime()))
   const retryAfterSeconds = Math.max(1, Math.ceil((firstMs + WINDOW_MINUTES * 60_000 - Date.now()) / 1000))
-  setResponseHeader(event, 'Retry-After', String(retryAfterSeconds))
+  setResponseHeader(event, 'Retry-After', retryAfterSeconds)
   throw createError({
     statusCode: 429,
     statusMessage: 'Too Many Requests',

@@ -1,5 +1,6 @@
 import type { Knex } from 'knex'
 import nodemailer, { type Transporter } from 'nodemailer'
+import type SMTPTransport from 'nodemailer/lib/smtp-transport'
 import { escapeHtml } from '#shared/utils/escape-html'
 
 export interface OutgoingMail { to: string, subject: string, paragraphs: string[], link?: { href: string, label: string } }
@@ -19,10 +20,13 @@ export async function enqueueMail(db: Knex | Knex.Transaction, mail: OutgoingMai
   await db('mail_outbox').insert({ to_address: mail.to, subject: mail.subject.slice(0, 300), body_text: text, body_html: html })
 }
 
-let transporter: Transporter | undefined
+let transporter: Transporter<SMTPTransport.SentMessageInfo> | undefined
 
 function useTransport(): Transporter {
-  transporter ??= nodemailer.createTransport(appConfig().smtpUrl, { secure: false, ignoreTLS: !appConfig().smtpUrl.startsWith('smtps:'), connectionTimeout: 5000, greetingTimeout: 5000, socketTimeout: 10000 })
+  const url = appConfig().smtpUrl
+  // The URL decides host, port, credentials and TLS; STARTTLS is used when the server offers it.
+  const options: SMTPTransport.Options = { url, connectionTimeout: 5000, greetingTimeout: 5000, socketTimeout: 10000 }
+  transporter ??= nodemailer.createTransport(options)
   return transporter
 }
 
