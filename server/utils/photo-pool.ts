@@ -1,5 +1,6 @@
 import { fork } from 'node:child_process'
 import { existsSync } from 'node:fs'
+import { setPriority } from 'node:os'
 import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { Worker } from 'node:worker_threads'
@@ -111,6 +112,10 @@ function runInChild(task: PhotoTask, timeoutMs: number): Promise<SizedPhoto> {
       env: { ...process.env, PHOTO_WORKER_FAULT: testFault() ?? '' },
       stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
     })
+    // Sizing can wait; answering readers cannot: on a small machine the scheduler
+    // should prefer the server's own thread (nice 10 by default).
+    try { if (child.pid) setPriority(child.pid, Number(process.env.PHOTO_WORKER_NICE ?? 10)) }
+    catch { /* not permitted here: runs at normal priority */ }
     let settled = false
     const settle = (outcome: () => void) => {
       if (settled) return
