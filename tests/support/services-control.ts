@@ -37,9 +37,14 @@ export async function stopService(service: Service): Promise<void> {
 export async function startService(service: Service): Promise<void> {
   const { port, file, vars } = settings(service)
   if (await portOpen(port)) return
-  const child = startDetached(process.execPath, ['--import', 'tsx', join(ROOT, 'scripts', 'services', file)], {
-    cwd: ROOT, env: { ...process.env, ...vars }, stdio: 'ignore',
-  })
+  // scripts/test.ts stops only the processes it started, so a restarted service would
+  // outlive the run (and serve a deleted data folder to the next one). A small shell
+  // keeps it only while the main app server it serves is alive, then ends it.
+  const appPid = listenerPid(localEnv('test').app.port)
+  if (!appPid) throw new Error('the main app server is not running')
+  const command = `${JSON.stringify(process.execPath)} --import tsx ${JSON.stringify(join(ROOT, 'scripts', 'services', file))}`
+  const watchdog = `${command} & svc=$!; while kill -0 ${appPid} 2>/dev/null && kill -0 $svc 2>/dev/null; do sleep 1; done; kill $svc 2>/dev/null`
+  const child = startDetached('sh', ['-c', watchdog], { cwd: ROOT, env: { ...process.env, ...vars }, stdio: 'ignore' })
   child.unref()
   await waitFor(`${service} on port ${port}`, () => portOpen(port))
 }
