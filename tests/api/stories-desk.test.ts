@@ -97,7 +97,7 @@ describe('preview links', () => {
     expect(view.body).toMatchObject({ preview: true, story: { id: story.id, headline: story.headline, state: 'draft' } })
     expect(view.body.figures.analysis.setups).toHaveLength(2)
     expect(view.body.figures.photos.map((p: any) => p.id)).toEqual([used.id])
-    expect(JSON.stringify(view.body)).not.toContain(`"id":${unused.id},`)
+    expect(JSON.stringify(view.body)).not.toContain(`/photos/${unused.id}/`)
     expect(JSON.stringify(view.body)).not.toContain('original')
 
     const photo = view.body.figures.photos[0]
