@@ -17,7 +17,7 @@ afterAll(async () => {
 
 let lastOutageMessage = ''
 
-const LEAKS = /\bat .+\.(m?js|ts):\d+|node_modules|ECONNREFUSED|127\.0\.0\.1:\d+|S3RVER/
+const LEAKS = /\bat .+\.(m?js|ts):\d+|node_modules|ECONNREFUSED|:4579\b|S3RVER/
 
 describe('storage endpoint down', () => {
   it('an upload fails with a clear message and leaves no row without its object; it works again after', async () => {
@@ -58,7 +58,7 @@ describe('storage endpoint down', () => {
 // client's too, as "the database is not reachable", so the writer is told the wrong
 // part is down. it.fails keeps this visible; when it is fixed this turns red: make it it().
 describe('storage endpoint down, the message', () => {
-  it.fails('names the storage, not the database', () => {
+  it.fails('names the storage, not the database (fails today: known bug)', () => {
     expect(lastOutageMessage).toMatch(/storage|store|file|photo/i)
     expect(lastOutageMessage).not.toMatch(/database/i)
   })
