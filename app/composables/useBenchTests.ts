@@ -27,7 +27,9 @@ export function useBenchTestsActions() {
 
   async function restore(id: number) {
     const res = await $fetch<{ benchTest: BenchTest }>(benchTestPath(id, '/restore'), { method: 'POST' })
-    await refreshBenchTestLists()
+    // Not awaited: the caller moves on to the restored bench test, and awaiting a
+    // refresh of the list it is leaving was seen to stall that navigation.
+    void refreshBenchTestLists()
     return res.benchTest
   }
 

@@ -112,6 +112,21 @@ describe('workspace pages beyond the first import', () => {
     await page.getByTestId('import-remove-0').click()
   })
 
+  it('asks which column holds what when a header is not recognised', async () => {
+    await page.goto(`/bench-tests/${id}/pulls`)
+    const csv = pull(79).csv.replace('RPM,', 'Motor speed,')
+    await page.getByTestId('import-file-input').setInputFiles({ name: 'odd-header.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
+    const file = page.getByTestId('import-file-0')
+    await file.and(page.locator('[data-state="errors"]')).waitFor({ timeout: 20_000 })
+    const mapping = file.getByTestId('import-mapping')
+    expect(await mapping.textContent()).toContain('Motor speed')
+    await mapping.getByTestId('import-mapping-0').selectOption('rpm')
+    await mapping.getByTestId('import-mapping-apply').click()
+    await file.and(page.locator('[data-state="ok"]')).waitFor({ timeout: 20_000 })
+    expect(await page.getByTestId('import-save').isDisabled()).toBe(false)
+    await page.getByTestId('import-remove-0').click()
+  })
+
   it('takes a file from the operator\'s link into the inbox and makes it a pull', async () => {
     await page.goto(`/bench-tests/${id}/inbox`)
     await page.getByTestId('link-label').fill('Cell 2 (invented)')
@@ -196,6 +211,19 @@ describe('workspace pages beyond the first import', () => {
     await page.locator('[data-testid="analysis-chart"][data-series-count="1"]').waitFor({ timeout: 20_000 })
     await page.getByTestId(`results-peak-power-${setupId}`).waitFor()
     await shot(page, 'analysis')
+  })
+
+  it('deletes the bench test only after confirming, and restores it from the list', async () => {
+    await page.goto(`/bench-tests/${id}`)
+    await page.getByTestId('bench-test-delete').click()
+    const dialog = page.getByTestId('confirm-dialog')
+    await dialog.waitFor()
+    expect(await dialog.textContent()).toMatch(/pull/)
+    await dialog.getByTestId('confirm-ok').click()
+    await page.waitForURL(/\/bench-tests\?deleted=/)
+    await page.getByTestId('bench-test-deleted-notice').getByRole('button', { name: 'Restore it' }).click()
+    await page.waitForURL(new RegExp(`/bench-tests/${id}$`))
+    await page.getByTestId('bench-test-heading').waitFor()
   })
 
   it.runIf(!!SHOTS)('pictures the demo bench test with the most pulls (for a human look)', async () => {

@@ -1,11 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import {
-  applyCorrection, averagePulls, hpToKw, lbFtToNm, parsePullCsv, peakOf, reportRound, syntheticPull,
+  applyCorrection, averagePulls, correctionFactor, hpToKw, lbFtToNm, parsePullCsv, peakOf, reportRound, syntheticPull,
   type AtRpm, type CorrectionStandard,
 } from '#shared/dyno'
 import { ANALYSIS_GRID } from '#shared/types/workspace'
 import { OKABE_ITO } from '#shared/utils/chart-options'
+import { formatReported } from '#shared/utils/figures'
 import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD } from '../support/http'
 
@@ -134,6 +135,18 @@ describe('a writer takes a bench test from nothing to compared curves', () => {
     await expect.poll(async () => figure(await power.textContent()), { timeout: 15_000 }).toBe(reportRound(hpToKw(want.power.value)))
     expect(figure(await page.getByTestId(`results-peak-torque-${id}`).textContent())).toBe(reportRound(lbFtToNm(want.torque.value)))
     await page.getByTestId('analysis-units-hp-lbft').check()
+  })
+
+  it('shows each pull\'s factor under the chosen correction standard', async () => {
+    const { body } = await (await page.request.get(`/api/bench-tests/${benchTestId}/pulls`)).json().then(b => ({ body: b as { pulls: { id: number, setupId: number }[] } }))
+    const pullId = body.pulls.find(p => p.setupId === setupIds[0])!.id
+    const cell = page.getByTestId(`factor-${pullId}`)
+    // DIN 70020: (1013 / p[mbar]) x sqrt(T / 293), shared/dyno correction.ts (secondary source, see its README).
+    for (const standard of ['din-70020', STANDARD] as const) {
+      await page.getByTestId('analysis-standard').selectOption(standard)
+      const want = formatReported(correctionFactor(standard, PULLS[0]!.pull.weather), 4)
+      await expect.poll(() => cell.textContent(), { timeout: 15_000 }).toContain(want)
+    }
   })
 })
 
