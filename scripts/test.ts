@@ -10,7 +10,11 @@ import { killGroup, runInherit } from './lib/proc'
 import { startServices, type RunningServices } from './lib/services'
 
 const bin = (name: string) => join(ROOT, 'node_modules', '.bin', name)
-const only = process.argv.slice(2) // e.g. `npm test -- api` runs one project after the checks
+// `npm test -- api` runs one project without lint and typecheck; file filters may
+// follow: `npm test -- api zz-faults` (vitest matches them against file paths).
+const PROJECTS = ['unit', 'api', 'browser']
+const only = process.argv.slice(2).filter(a => PROJECTS.includes(a))
+const filters = process.argv.slice(2).filter(a => !PROJECTS.includes(a))
 const failures: string[] = []
 const totals = { passed: 0, failed: 0, skipped: 0 }
 
@@ -25,7 +29,7 @@ async function vitest(project: string, env: Record<string, string> = {}) {
   const report = join(ROOT, '.data', 'test', `vitest-${project}.json`)
   rmSync(report, { force: true })
   const serial = project === 'unit' ? [] : ['--no-file-parallelism'] // they share one database and server
-  await step(`${project} tests`, bin('vitest'), ['run', '--project', project, ...serial, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`], env)
+  await step(`${project} tests`, bin('vitest'), ['run', '--project', project, ...serial, ...filters, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`], env)
   if (existsSync(report)) {
     const r = JSON.parse(readFileSync(report, 'utf8')) as { numPassedTests: number, numFailedTests: number, numPendingTests: number, numTodoTests: number }
     totals.passed += r.numPassedTests

@@ -54,11 +54,10 @@ describe('storage endpoint down', () => {
   }, 90_000)
 })
 
-// Known product bug: server/utils/db-errors.ts counts any ECONNREFUSED, the storage
-// client's too, as "the database is not reachable", so the writer is told the wrong
-// part is down. it.fails keeps this visible; when it is fixed this turns red: make it it().
+// A refused connection counts as "database down" only on the database's port
+// (shared/utils/db-unavailable.ts), so the writer is told which part is down.
 describe('storage endpoint down, the message', () => {
-  it.fails('names the storage, not the database (fails today: known bug)', () => {
+  it('names the storage, not the database', () => {
     expect(lastOutageMessage).toMatch(/storage|store|file|photo/i)
     expect(lastOutageMessage).not.toMatch(/database/i)
   })
