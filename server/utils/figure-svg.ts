@@ -16,6 +16,25 @@ echarts.use([LineChart, GridComponent, LegendComponent, MarkLineComponent, AriaC
  * the figure carries its own summary and data table.
  */
 export function renderGraphSvg(option: PullChartOption, size: { width: number, height: number }): string {
+  // Drawing costs tens of ms per graph and the same graph is drawn on every
+  // uncached render: keep recent drawings, keyed by exactly what they depend on.
+  const key = JSON.stringify([size.width, size.height, option])
+  const hit = drawn.get(key)
+  if (hit !== undefined) {
+    drawn.delete(key)
+    drawn.set(key, hit) // most recently used last
+    return hit
+  }
+  const svg = drawGraphSvg(option, size)
+  drawn.set(key, svg)
+  if (drawn.size > MAX_DRAWN) drawn.delete(drawn.keys().next().value!)
+  return svg
+}
+
+const MAX_DRAWN = 200
+const drawn = new Map<string, string>()
+
+function drawGraphSvg(option: PullChartOption, size: { width: number, height: number }): string {
   const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width: size.width, height: size.height })
   try {
     // A static picture: no pointer, no tooltip, nothing that waits for a mouse.
