@@ -15,7 +15,6 @@ export const useWorkspaceStore = defineStore('workspace', {
   state: () => ({
     units: 'hp-lbft' as AnalysisUnits,
     views: {} as Record<number, AnalysisView>,
-    graph: 'overlay' as 'overlay' | 'gain',
   }),
   actions: {
     view(benchTestId: number): AnalysisView {
