@@ -14,6 +14,31 @@ export function newPhotoPrefix(benchTestId: number): string {
 export const photoOriginalKey = (prefix: string) => `${prefix}/original`
 export const photoVariantKey = (prefix: string, width: number) => `${prefix}/w${width}.jpg`
 
+const NETWORK_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENOTFOUND', 'EAI_AGAIN'])
+
+function storageUnreachable(error: unknown): boolean {
+  for (let e: unknown = error, depth = 0; e && depth < 4; e = (e as { cause?: unknown }).cause, depth++) {
+    const { code, name, $metadata } = e as { code?: string, name?: string, $metadata?: { httpStatusCode?: number } }
+    if ((code && NETWORK_CODES.has(code)) || name === 'TimeoutError' || ($metadata?.httpStatusCode ?? 0) >= 500) return true
+  }
+  return false
+}
+
+/**
+ * For request paths: storage that does not answer is a 503 that says so. Made
+ * without a cause on purpose: the error hook (server/plugins/errors.ts) would
+ * read a connection refusal in the cause as "the database is not reachable".
+ */
+export async function whilePhotoStorageAnswers<T>(work: () => Promise<T>): Promise<T> {
+  try {
+    return await work()
+  }
+  catch (error) {
+    if (!storageUnreachable(error)) throw error
+    throw createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: 'Photo storage is not reachable right now. Try again in a moment.' })
+  }
+}
+
 export async function putPhotoObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
   await useS3().send(new PutObjectCommand({ Bucket: appConfig().s3.bucket, Key: key, Body: body, ContentType: contentType }))
 }

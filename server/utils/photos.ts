@@ -91,7 +91,7 @@ export async function storeUploadedPhoto(user: CurrentUser, benchTestId: number,
 
   const prefix = newPhotoPrefix(benchTestId)
   const originalKey = photoOriginalKey(prefix)
-  await putPhotoObject(originalKey, upload.bytes, inspected.mime)
+  await whilePhotoStorageAnswers(() => putPhotoObject(originalKey, upload.bytes, inspected.mime))
   try {
     const id = await useDb().transaction(async (trx) => {
       // Uploads side by side into one bench test take their places one after the other.

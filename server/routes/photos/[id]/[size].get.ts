@@ -36,7 +36,7 @@ export default defineEventHandler(async (event) => {
     setResponseHeader(event, 'Content-Disposition', 'inline')
   }
 
-  const object = await streamPhotoObject(key, getRequestHeader(event, 'if-none-match') || undefined)
+  const object = await whilePhotoStorageAnswers(() => streamPhotoObject(key, getRequestHeader(event, 'if-none-match') || undefined))
   if (!object) notFound('No such photo.')
   setResponseHeaders(event, {
     'Content-Type': contentType,
