@@ -30,12 +30,6 @@ async function renewJobLease(jobId: number, seconds: number): Promise<void> {
   await useDb()('jobs').where({ id: jobId, status: 'running' }).update({ lease_until: useDb().raw('NOW(3) + INTERVAL ? SECOND', [seconds]) })
 }
 
-function ownArrayBuffer(bytes: Uint8Array): ArrayBuffer {
-  // The SDK may hand back a view into a larger buffer; a worker needs one it can own.
-  if (bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.buffer instanceof ArrayBuffer) return bytes.buffer
-  return bytes.slice().buffer as ArrayBuffer
-}
-
 /** Sizes one photo: original from S3, sizes in a worker, sizes to S3, then the row says ready. */
 export async function processPhotoJob(job: JobRow): Promise<void> {
   const photoId = Number((job.payload as { photoId?: unknown } | null)?.photoId)
@@ -47,10 +41,11 @@ export async function processPhotoJob(job: JobRow): Promise<void> {
   }
   await db('photos').where({ id: photoId }).update({ status: 'processing', failure_reason: null })
 
-  const original = await readPhotoObject(photo.original_key)
+  const original = await streamPhotoObject(photo.original_key)
   if (!original) throw new PhotoTaskError('The uploaded file is missing from storage. Delete this photo and upload it again.', true)
   const sized = await runPhotoTask({
-    bytes: ownArrayBuffer(original),
+    bytes: original.body,
+    length: original.contentLength,
     mime: photo.mime,
     width: photo.width,
     height: photo.height,

@@ -1,6 +1,7 @@
 import { fork } from 'node:child_process'
 import { existsSync } from 'node:fs'
 import { setPriority } from 'node:os'
+import type { Readable } from 'node:stream'
 import { dirname, join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { Worker } from 'node:worker_threads'
@@ -16,7 +17,13 @@ import { Worker } from 'node:worker_threads'
 // keeps the thread variant (same file, same messages) for comparison.
 
 export interface PhotoTask {
-  bytes: ArrayBuffer
+  /**
+   * The original: bytes, or a stream of them straight from storage. A child
+   * worker reads the stream on its stdin, so the server never holds the whole file.
+   */
+  bytes: ArrayBuffer | Readable
+  /** Expected size of a stream, so a cut-off one is told from a broken file. */
+  length?: number
   mime: string
   width: number
   height: number
@@ -110,7 +117,7 @@ function runInChild(task: PhotoTask, timeoutMs: number): Promise<SizedPhoto> {
       serialization: 'advanced',
       execArgv: ['--max-old-space-size=1024'],
       env: { ...process.env, PHOTO_WORKER_FAULT: testFault() ?? '' },
-      stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
+      stdio: ['pipe', 'inherit', 'inherit', 'ipc'],
     })
     // Sizing can wait; answering readers cannot: on a small machine the scheduler
     // should prefer the server's own thread (nice 10 by default).
@@ -122,17 +129,35 @@ function runInChild(task: PhotoTask, timeoutMs: number): Promise<SizedPhoto> {
       settled = true
       clearTimeout(timer)
       child.kill('SIGKILL')
+      // A storage stream left paused would hold its connection open.
+      if (!(task.bytes instanceof ArrayBuffer)) task.bytes.destroy()
       outcome()
     }
     const timer = setTimeout(() => settle(() => reject(timedOut(timeoutMs))), timeoutMs)
     child.once('message', (answer: WorkerAnswer) => settle(() => resolve(answered(answer))))
     child.once('error', error => settle(() => reject(new PhotoTaskError(`The photo worker could not start: ${error.message}`, false))))
     child.once('exit', (code, signal) => settle(() => reject(stopped(code, signal))))
-    child.send(task)
+    child.stdin!.on('error', () => { /* the child ended first: its exit says why */ })
+    const { bytes, ...rest } = task
+    child.send(rest)
+    if (bytes instanceof ArrayBuffer) {
+      child.stdin!.end(Buffer.from(bytes))
+    }
+    else {
+      bytes.once('error', () => settle(() => reject(new PhotoTaskError('Reading the original from storage broke off. It will be tried again.', false))))
+      bytes.pipe(child.stdin!)
+    }
   })
 }
 
-function runInThread(task: PhotoTask, timeoutMs: number): Promise<SizedPhoto> {
+async function collect(stream: Readable): Promise<ArrayBuffer> {
+  const chunks: Buffer[] = []
+  for await (const chunk of stream) chunks.push(chunk as Buffer)
+  const all = Buffer.concat(chunks)
+  return all.buffer.slice(all.byteOffset, all.byteOffset + all.byteLength) as ArrayBuffer
+}
+
+function runInThread(task: PhotoTask & { bytes: ArrayBuffer }, timeoutMs: number): Promise<SizedPhoto> {
   return new Promise((resolve, reject) => {
     const worker = new Worker(photoWorkerFile(), {
       workerData: { fault: testFault() },
@@ -161,7 +186,9 @@ function runInThread(task: PhotoTask, timeoutMs: number): Promise<SizedPhoto> {
 export async function runPhotoTask(task: PhotoTask, timeoutMs = Number(process.env.PHOTO_TASK_TIMEOUT_SECONDS ?? 300) * 1000): Promise<SizedPhoto> {
   await takeSlot()
   try {
-    return await (photoWorkerMode() === 'thread' ? runInThread(task, timeoutMs) : runInChild(task, timeoutMs))
+    if (photoWorkerMode() === 'process') return await runInChild(task, timeoutMs)
+    const bytes = task.bytes instanceof ArrayBuffer ? task.bytes : await collect(task.bytes)
+    return await runInThread({ ...task, bytes }, timeoutMs)
   }
   finally {
     giveSlot()

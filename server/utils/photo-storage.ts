@@ -48,18 +48,6 @@ function isMissing(error: unknown): boolean {
   return e?.name === 'NoSuchKey' || e?.name === 'NotFound' || e?.$metadata?.httpStatusCode === 404
 }
 
-/** The whole object as bytes, or null when it is not there. */
-export async function readPhotoObject(key: string): Promise<Uint8Array | null> {
-  try {
-    const answer = await useS3().send(new GetObjectCommand({ Bucket: appConfig().s3.bucket, Key: key }))
-    return answer.Body ? await answer.Body.transformToByteArray() : null
-  }
-  catch (error) {
-    if (isMissing(error)) return null
-    throw error
-  }
-}
-
 export interface PhotoObjectStream { body: Readable, contentLength?: number, etag?: string, notModified: boolean }
 
 /** A stream for the reader route; null when missing, notModified when the ETag still matches. */

@@ -135,6 +135,17 @@ channel.receive(async (task) => {
   }
   if (channel.fault === 'exit-first-try' && task.attempt === 1) process.exit(70)
   try {
+    if (!parentPort) {
+      // A child gets the original on stdin, streamed from storage by the server.
+      const chunks = []
+      for await (const chunk of process.stdin) chunks.push(chunk)
+      const bytes = Buffer.concat(chunks)
+      if (task.length !== undefined && bytes.length !== task.length) {
+        channel.send({ ok: false, permanent: false, message: `The original arrived incomplete from storage (${bytes.length} of ${task.length} bytes). It will be tried again.` })
+        return
+      }
+      task.bytes = toArrayBuffer(bytes)
+    }
     const result = await sizePhoto(task)
     // Peak memory of this process: meaningful for a child, the whole server's for a thread.
     result.maxRssMb = Math.round(process.resourceUsage().maxRSS / 1024)

@@ -1,3 +1,4 @@
+import { Readable } from 'node:stream'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PHOTO_JPEG_QUALITY, PHOTO_WIDTHS } from '#shared/types/photos'
 import { PhotoTaskError, runPhotoTask, type SizedPhoto } from '../../../server/utils/photo-pool'
@@ -78,6 +79,18 @@ describe.each(['process', 'thread'])('photo worker as a %s', (mode) => {
     const image = await decode(new Uint8Array(answer.result!.variants[0]!.bytes))
     expect(pixel(image, 5, 10).every(c => c > 245)).toBe(true)
     expect(nearest(pixel(image, 35, 10))).toBe('blue')
+  })
+
+  it('takes the original as a stream (as from storage), and tells a cut-off stream from a broken file', async () => {
+    const jpeg = await makeJpeg(700, 300)
+    const chunks = Array.from({ length: Math.ceil(jpeg.length / 4096) }, (_, i) => jpeg.subarray(i * 4096, (i + 1) * 4096))
+    const task = { mime: 'image/jpeg', width: 700, height: 300, orientation: 1, widths: PHOTO_WIDTHS, quality: PHOTO_JPEG_QUALITY, attempt: 1 }
+    const sized = await runPhotoTask({ ...task, bytes: Readable.from(chunks), length: jpeg.length })
+    expect(sized.variants.map(v => [v.width, v.height])).toEqual([[480, 206], [700, 300]])
+    if (mode === 'process') {
+      const cut = runPhotoTask({ ...task, bytes: Readable.from(chunks.slice(0, 2)), length: jpeg.length })
+      await expect(cut).rejects.toMatchObject({ permanent: false, message: expect.stringMatching(/arrived incomplete from storage/) })
+    }
   })
 
   it('gives up for good on a file whose header is fine but whose data does not decode', async () => {
