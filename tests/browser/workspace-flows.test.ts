@@ -3,7 +3,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it, onTestFailed } f
 import type { Page } from 'playwright-core'
 import { camEvents, ciToLiters, displacementCi, reportRound, syntheticPull } from '#shared/dyno'
 import { formatReported } from '#shared/utils/figures'
-import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { BASE_URL, DEMO_PASSWORD } from '../support/http'
 
 // The workspace's other paths through the pages: build sheet, cam card, a save that
@@ -45,7 +45,7 @@ describe('workspace pages beyond the first import', () => {
   beforeEach((ctx) => { onTestFailed(() => shot(page, `failed-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`)) })
 
   it('shows displacement live on the build sheet and saves it', async () => {
-    await page.goto(`/bench-tests/${id}`)
+    await gotoReady(page, `/bench-tests/${id}`)
     const sheet = page.getByTestId('build-sheet-form')
     await sheet.getByTestId('build-sheet-bore').fill('3.386')
     await sheet.getByTestId('build-sheet-stroke').fill('3.386')
@@ -61,7 +61,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('keeps what was typed when someone else saved the details meanwhile', async () => {
-    await page.goto(`/bench-tests/${id}`)
+    await gotoReady(page, `/bench-tests/${id}`)
     const form = page.getByTestId('bench-test-edit-form')
     const current = await api('get', `/api/bench-tests/${id}`)
     const theirs = await api('patch', `/api/bench-tests/${id}`, { version: current.body.benchTest.version, shop: 'Invented Dyno Works' })
@@ -81,7 +81,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('computes cam events on the card as it is typed', async () => {
-    await page.goto(`/bench-tests/${id}/setups`)
+    await gotoReady(page, `/bench-tests/${id}/setups`)
     const form = page.getByTestId('setup-create-form')
     await form.getByTestId('setup-label').fill('Bigger cam (invented)')
     await form.getByTestId('part-category').selectOption('camshaft')
@@ -98,7 +98,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('shows a bad file\'s problems with line and column and will not save it', async () => {
-    await page.goto(`/bench-tests/${id}/pulls`)
+    await gotoReady(page, `/bench-tests/${id}/pulls`)
     const good = pull(77).csv.split('\r\n')
     good[12] = good[12]!.replace(/^(\d+),[^,]+/, '$1,4o2.1') // a typo in a torque cell
     await page.getByTestId('import-file-input').setInputFiles({ name: 'typo.csv', mimeType: 'text/csv', buffer: Buffer.from(good.join('\r\n')) })
@@ -113,7 +113,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('asks which column holds what when a header is not recognised', async () => {
-    await page.goto(`/bench-tests/${id}/pulls`)
+    await gotoReady(page, `/bench-tests/${id}/pulls`)
     const csv = pull(79).csv.replace('RPM,', 'Motor speed,')
     await page.getByTestId('import-file-input').setInputFiles({ name: 'odd-header.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
     const file = page.getByTestId('import-file-0')
@@ -128,7 +128,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('takes a file from the operator\'s link into the inbox and makes it a pull', async () => {
-    await page.goto(`/bench-tests/${id}/inbox`)
+    await gotoReady(page, `/bench-tests/${id}/inbox`)
     await page.getByTestId('link-label').fill('Cell 2 (invented)')
     await page.getByTestId('link-create').click()
     const url = await page.getByTestId('link-url').inputValue()
@@ -167,7 +167,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('leaves a pull out only with a reason, and takes it back', async () => {
-    await page.goto(`/bench-tests/${id}/pulls`)
+    await gotoReady(page, `/bench-tests/${id}/pulls`)
     const { body } = await api('get', `/api/bench-tests/${id}/pulls`)
     const pullId = body.pulls[0].id
     await page.getByTestId(`pull-exclude-${pullId}`).click()
@@ -183,7 +183,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('moves a setup down the list and makes another the baseline', async () => {
-    await page.goto(`/bench-tests/${id}/setups`)
+    await gotoReady(page, `/bench-tests/${id}/setups`)
     const names = () => page.getByTestId('setup-list').getByTestId('setup-name').allTextContents()
     const before = await names()
     await page.getByTestId(`setup-down-${setupId}`).click()
@@ -195,7 +195,7 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('asks before deleting a setup with pulls, and restores it', async () => {
-    await page.goto(`/bench-tests/${id}/setups`)
+    await gotoReady(page, `/bench-tests/${id}/setups`)
     await page.getByTestId(`setup-delete-${setupId}`).click()
     const dialog = page.getByTestId('confirm-dialog')
     await dialog.waitFor()
@@ -207,14 +207,14 @@ describe('workspace pages beyond the first import', () => {
   })
 
   it('draws the analysis for the one setup with pulls', async () => {
-    await page.goto(`/bench-tests/${id}/analysis`)
+    await gotoReady(page, `/bench-tests/${id}/analysis`)
     await page.locator('[data-testid="analysis-chart"][data-series-count="1"]').waitFor({ timeout: 20_000 })
     await page.getByTestId(`results-peak-power-${setupId}`).waitFor()
     await shot(page, 'analysis')
   })
 
   it('deletes the bench test only after confirming, and restores it from the list', async () => {
-    await page.goto(`/bench-tests/${id}`)
+    await gotoReady(page, `/bench-tests/${id}`)
     await page.getByTestId('bench-test-delete').click()
     const dialog = page.getByTestId('confirm-dialog')
     await dialog.waitFor()
@@ -231,7 +231,7 @@ describe('workspace pages beyond the first import', () => {
     const demo = [...list].sort((a, b) => b.pullCount - a.pullCount)[0]
     expect(demo?.pullCount).toBeGreaterThan(0)
     for (const section of ['pulls', 'analysis']) {
-      await page.goto(`/bench-tests/${demo!.id}/${section}`)
+      await gotoReady(page, `/bench-tests/${demo!.id}/${section}`)
       if (section === 'analysis') await page.locator('[data-testid="analysis-chart"] svg').first().waitFor({ timeout: 20_000 })
       await shot(page, `demo-${section}`)
     }

@@ -37,3 +37,9 @@ export async function signInThroughPage(page: Page, email: string, password: str
   await page.getByTestId('login-submit').click()
   await page.getByTestId('user-name').waitFor({ timeout: 15_000 })
 }
+
+/** Opens a page and waits until Vue has hydrated it (app/plugins/hydrated.client.ts). */
+export async function gotoReady(page: Page, url: string): Promise<void> {
+  await page.goto(url)
+  await page.locator('html[data-hydrated="true"]').waitFor({ state: 'attached', timeout: 20_000 })
+}
