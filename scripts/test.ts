@@ -55,6 +55,7 @@ try {
     await buildIfNeeded()
     services = await startServices(testEnv)
     await migrate(settings.DATABASE_URL!)
+    process.env.PULLSHEET_DEMO_STORIES = '0' // tests make their own stories
     await seed(settings.DATABASE_URL!)
     const serverExtra = { MAIL_POLL_MS: '300', MAIL_RETRY_BASE_SECONDS: '1', TRUST_PROXY: '1' }
     app = await startApp(testEnv, serverExtra)
