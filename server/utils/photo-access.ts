@@ -44,13 +44,9 @@ export async function requirePhoto(user: CurrentUser, id: number, db: Knex | Kne
   return row as PhotoRecord
 }
 
-/**
- * A photo anyone may see: one placed in a published story. Stories arrive with
- * issue 6, which replaces this body with a query on the story's state; until
- * then no photo is public.
- */
-export async function photoIsPublic(_photoId: number): Promise<boolean> {
-  return false
+/** A photo anyone may see: one a published story uses (hero or in its body). */
+export async function photoIsPublic(photoId: number): Promise<boolean> {
+  return photoInPublishedStory(photoId)
 }
 
 /**
