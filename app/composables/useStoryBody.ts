@@ -1,4 +1,5 @@
 import { sanitizeStoryAst, type StoryAstRoot } from '#shared/utils/story-ast'
+import { LruCache } from '#shared/utils/lru-cache'
 
 /**
  * A story body as the renderer takes it: parsed by @nuxtjs/mdc (raw HTML is read
@@ -7,10 +8,20 @@ import { sanitizeStoryAst, type StoryAstRoot } from '#shared/utils/story-ast'
  * and in the browser only where the text changes (the editor's preview).
  */
 export async function parseStoryBody(body: string): Promise<StoryAstRoot> {
+  // Parsing costs milliseconds per render and a published body is read by every
+  // uncached page: the server keeps recent parses, keyed by the text itself. The
+  // renderer only reads the tree, so one copy serves every request.
+  const kept = import.meta.server ? parsedBodies.get(body) : undefined
+  if (kept) return kept
   const { parseMarkdown } = await import('@nuxtjs/mdc/runtime')
   const parsed = await parseMarkdown(body, { highlight: false, toc: false, contentHeading: false })
-  return sanitizeStoryAst(parsed.body)
+  const ast = sanitizeStoryAst(parsed.body)
+  if (import.meta.server) parsedBodies.set(body, ast)
+  return ast
 }
+
+// The hundred most recently read bodies: a few megabytes at most.
+const parsedBodies = new LruCache<StoryAstRoot>(100)
 
 export const storyBodyKey = (key: string) => `story-body:${key}`
 

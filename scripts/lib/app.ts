@@ -7,7 +7,9 @@ import { portOpen, startDetached, waitFor } from './proc'
 /** Runs the built server (.output) with the local services' settings. */
 export async function startApp(env: LocalEnv, extra: Record<string, string> = {}, port = env.app.port): Promise<ChildProcess> {
   if (await portOpen(port, env.app.host)) throw new Error(`Port ${port} is already in use: set PORT to another one.`)
-  const child = startDetached(process.execPath, [join(ROOT, '.output', 'server', 'index.mjs')], {
+  // APP_NODE_ARGS: flags for the server's own Node (e.g. --cpu-prof), which NODE_OPTIONS refuses.
+  const nodeArgs = process.env.APP_NODE_ARGS?.split(/\s+/).filter(Boolean) ?? []
+  const child = startDetached(process.execPath, [...nodeArgs, join(ROOT, '.output', 'server', 'index.mjs')], {
     cwd: ROOT,
     env: {
       ...process.env,

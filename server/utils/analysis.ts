@@ -10,7 +10,7 @@ import {
   ANALYSIS_GRID, ANALYSIS_UNITS,
   type AnalysisGains, type AnalysisQueryInput, type AnalysisResponse, type AnalysisRow, type AnalysisSetup, type AnalysisUnits, type BenchTest, type CurvePoint, type GainCurve,
 } from '../../shared/types/workspace'
-import { LruCache } from './lru-cache'
+import { LruCache } from '#shared/utils/lru-cache'
 import { decodePoints } from './pull-points'
 import { httpError, invalidField } from './workspace-http'
 import { asBool } from './workspace-rows'

@@ -10,6 +10,9 @@ import type { MagazineStoryResponse } from '#shared/types/magazine'
 import type { CurrentUser } from '#shared/types/users'
 import type { EngineFamily, PartType } from '#shared/types/catalog'
 import { rolesAtLeast } from '#shared/types/roles'
+import { withRoundedCurves } from '#shared/utils/curve-precision'
+import { LruCache } from '#shared/utils/lru-cache'
+import { photosUsed } from '#shared/utils/story-body'
 import type { BenchTestRecord } from './bench-access'
 
 /** The reader's switches: correction standard and units (figures in the text stay in hp and lb-ft). */
@@ -28,6 +31,7 @@ interface StoryRow {
   part_type: PartType
   search_title: string
   search_description: string
+  version: number
   state: StoryReaderView['story']['state']
   published_at: Date | string | null
   updated_at: Date | string
@@ -59,11 +63,18 @@ async function benchTestOf(db: Knex, id: number): Promise<BenchTestRecord & { ow
   return row
 }
 
+// What a reader's graph needs, and no more: every page carries its curves in the
+// payload. 200 points is more than a graph is wide in pixels at a phone's width and
+// close to the server SVG's 160; two decimals sit far below the readout's 0.1.
+const READER_CURVE_POINTS = 200
+const READER_CURVE_PLACES = 2
+
 /** The story's analysis with the reader's standard and units; null with a reason when there is none. */
 export async function readerAnalysis(story: ReaderStory, query: AnalysisQueryInput, db: Knex = useDb()): Promise<{ analysis: AnalysisResponse | null, problem: string | null }> {
   const benchTest = toBenchTest(await benchTestOf(db, story.row.bench_test_id))
   try {
-    return { analysis: await runAnalysis(db, benchTest, query), problem: null }
+    const analysis = await runAnalysis(db, benchTest, { maxPoints: READER_CURVE_POINTS, ...query })
+    return { analysis: withRoundedCurves(analysis, READER_CURVE_PLACES), problem: null }
   }
   catch (e) {
     const status = (e as { statusCode?: number }).statusCode
@@ -91,12 +102,39 @@ export async function readerFigures(story: ReaderStory, standard: ReaderAnalysis
   return { analysis, analysisProblem: problem, comparisons: comparisonsOf(analysis) }
 }
 
+// A published story's view is the same for every reader, and building it is most of
+// a page's database work (eight queries and the analysis). Kept per process like the
+// page cache, and dropped with it (invalidateStoryCache) when the stories change; the
+// key carries the story's version as well, so an edit seen before the poll still misses.
+const publishedViews = new LruCache<{ slug: string, storedAt: number, view: MagazineStoryResponse }>(200)
+
+onStoryCacheDropped((slug) => {
+  if (!slug) return publishedViews.clear()
+  for (const key of publishedViews.keys()) {
+    if (publishedViews.peek(key)?.slug === slug) publishedViews.delete(key)
+  }
+})
+
 export async function readerView(story: ReaderStory, db: Knex = useDb()): Promise<MagazineStoryResponse> {
+  if (story.preview) return buildReaderView(story, db)
+  const key = `${story.row.id}:${story.row.version}:${new Date(story.row.updated_at).getTime()}`
+  const kept = publishedViews.get(key)
+  if (kept && Date.now() - kept.storedAt <= PAGE_CACHE_TTL_MS) return kept.view
+  const view = await buildReaderView(story, db)
+  publishedViews.set(key, { slug: story.row.slug, storedAt: Date.now(), view })
+  return view
+}
+
+async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineStoryResponse> {
   const { row } = story
   const benchRow = await benchTestOf(db, row.bench_test_id)
   const benchTest = toBenchTest(benchRow)
-  const photoIds = await db('story_photos').where({ story_id: row.id }).pluck('photo_id') as number[]
-  if (row.hero_photo_id) photoIds.push(row.hero_photo_id)
+  const used = await db('story_photos').where({ story_id: row.id }).pluck('photo_id') as number[]
+  if (row.hero_photo_id) used.push(row.hero_photo_id)
+  // The gallery follows the body: the photos in the order the text places them.
+  const order = [...photosUsed(row.body)]
+  const rank = (id: number) => (order.includes(id) ? order.indexOf(id) : order.length)
+  const photoIds = [...new Set(used)].sort((a, b) => rank(a) - rank(b) || a - b)
   const [bylines, tags, photos, { analysis, problem }, buildSheet, setups] = await Promise.all([
     magazineBylines(db, [row.id]),
     magazineTags(db, [row.id]),

@@ -55,8 +55,10 @@ export function toReaderPhoto(row: PhotoRecord): StoryPhoto {
 
 export async function magazinePhotos(db: Knex, ids: readonly number[]): Promise<Map<number, StoryPhoto>> {
   if (ids.length === 0) return new Map()
-  const rows = await db<PhotoRecord>('photos').whereIn('id', [...new Set(ids)])
-  return new Map(rows.map(r => [r.id, toReaderPhoto(r)]))
+  const wanted = [...new Set(ids)]
+  const rows = new Map((await db<PhotoRecord>('photos').whereIn('id', wanted)).map(r => [r.id, r]))
+  // In the order asked for (the body's), not the order the database happens to return.
+  return new Map(wanted.filter(id => rows.has(id)).map(id => [id, toReaderPhoto(rows.get(id)!)]))
 }
 
 export async function magazineBylines(db: Knex, storyIds: readonly number[]): Promise<Map<number, { userId: number, displayName: string }[]>> {

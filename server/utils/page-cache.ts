@@ -96,6 +96,14 @@ export function invalidateStoryCache(slug?: string): void {
   for (const [key, page] of [...pages]) {
     if (!slug || page.slug === null || page.slug === slug) forget(key)
   }
+  for (const listener of droppedListeners) listener(slug)
+}
+
+const droppedListeners = new Set<(slug?: string) => void>()
+
+/** Other per-process caches of story data (the reader's view) are dropped with the pages. */
+export function onStoryCacheDropped(listener: (slug?: string) => void): void {
+  droppedListeners.add(listener)
 }
 
 export function pageCacheSize(): number {

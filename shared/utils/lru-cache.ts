@@ -1,7 +1,8 @@
 /**
  * A small least-recently-used cache bounded by total weight (points held, entries...).
- * Per process: every app server keeps its own, and keys are built from row versions,
- * so a change anywhere simply makes a new key and the old entry ages out.
+ * Per process: every app server keeps its own. Keys are built from row versions or
+ * from the content itself, so a change anywhere simply makes a new key and the old
+ * entry ages out.
  */
 export class LruCache<V> {
   private readonly entries = new Map<string, { value: V, weight: number }>()
@@ -15,6 +16,15 @@ export class LruCache<V> {
     this.entries.delete(key)
     this.entries.set(key, hit)
     return hit.value
+  }
+
+  /** The value without making it the most recently used. */
+  peek(key: string): V | undefined {
+    return this.entries.get(key)?.value
+  }
+
+  keys(): string[] {
+    return [...this.entries.keys()]
   }
 
   set(key: string, value: V): void {

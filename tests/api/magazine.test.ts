@@ -78,7 +78,9 @@ describe('the story page without script', () => {
     const html = await res.text()
     expect(html).toContain('data-testid="story-headline"')
     expect(html).toMatch(/<svg[^>]*>[\s\S]*<path/)
-    expect(html).toContain('data-testid="results-table"')
+    // The body places the results table; "The data" below does not repeat it.
+    expect(html).toContain('data-testid="figure-results-table"')
+    expect(html).not.toContain('data-testid="results-table"')
     expect(html).toContain('href="/how-we-test"')
     expect(html).toContain('data-testid="download-data"')
     expect(html).toMatch(/<link rel="canonical" href="[^"]*\/stories\//)

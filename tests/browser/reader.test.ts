@@ -74,6 +74,13 @@ describe('a reader on a story', () => {
     const middle = await rpmOf()
     await page.mouse.move(box.x + box.width * 0.25, box.y + box.height * 0.5, { steps: 4 })
     await expect.poll(rpmOf, { timeout: 5000 }).toBeLessThan(middle)
+    // It keeps following the pointer: over to the right, then back to the left.
+    const low = await rpmOf()
+    await page.mouse.move(box.x + box.width * 0.8, box.y + box.height * 0.5, { steps: 6 })
+    await expect.poll(rpmOf, { timeout: 5000 }).toBeGreaterThan(middle)
+    await page.mouse.move(box.x + box.width * 0.4, box.y + box.height * 0.4, { steps: 6 })
+    await expect.poll(rpmOf, { timeout: 5000 }).toBeLessThan(middle)
+    expect(await rpmOf()).toBeGreaterThan(low)
     // The slider beside it is the keyboard's way along the curve: End goes to the top of the range.
     await graph.getByTestId('figure-readout-rpm').focus()
     await page.keyboard.press('End')

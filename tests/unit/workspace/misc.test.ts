@@ -1,10 +1,23 @@
 import { describe, expect, it } from 'vitest'
-import { LruCache } from '../../../server/utils/lru-cache'
+import { LruCache } from '../../../shared/utils/lru-cache'
 import { slugify } from '../../../server/utils/bench-test-core'
 import { cleanFileName, hashToken } from '../../../server/utils/operator-links'
 import { isoDay, parseJsonColumn } from '../../../server/utils/workspace-rows'
 
 describe('LruCache', () => {
+  it('peeks without changing which entry goes first', () => {
+    const cache = new LruCache<string>(2)
+    cache.set('a', 'first')
+    cache.set('b', 'second')
+    expect(cache.peek('a')).toBe('first')
+    expect(cache.keys()).toEqual(['a', 'b'])
+    cache.set('c', 'third')
+    // 'a' was only peeked at, so it is still the oldest and is the one dropped.
+    expect(cache.keys()).toEqual(['b', 'c'])
+    expect(cache.get('b')).toBe('second')
+    expect(cache.keys()).toEqual(['c', 'b'])
+  })
+
   it('drops the least recently used entries past its weight', () => {
     const cache = new LruCache<number[]>(5, v => v.length)
     cache.set('a', [1, 2])
