@@ -9,6 +9,7 @@ import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO, expectOk } from '../support/workspace'
 import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
+import { csvRows } from '../support/csv'
 
 afterAll(closeTestDb)
 
@@ -91,30 +92,6 @@ describe('the story page without script', () => {
   })
 })
 
-function parseCsv(text: string): string[][] {
-  const rows: string[][] = []
-  let row: string[] = []
-  let cell = ''
-  let quoted = false
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i]!
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { cell += '"'; i++ }
-      else if (c === '"') quoted = false
-      else cell += c
-    }
-    else if (c === '"') quoted = true
-    else if (c === ',') { row.push(cell); cell = '' }
-    else if (c === '\n' || c === '\r') {
-      if (c === '\r' && text[i + 1] === '\n') i++
-      row.push(cell); rows.push(row); row = []; cell = ''
-    }
-    else cell += c
-  }
-  if (cell || row.length) { row.push(cell); rows.push(row) }
-  return rows
-}
-
 describe('download the data', () => {
   it('matches the results table, in the units and standard asked for', async () => {
     for (const query of ['', '?units=kw-nm&standard=din-70020']) {
@@ -123,7 +100,7 @@ describe('download the data', () => {
       expect(res.status).toBe(200)
       expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
       expect(res.headers.get('content-disposition')).toContain(`${slugs.published}-results.csv`)
-      const [header, ...rows] = parseCsv(await res.text())
+      const [header, ...rows] = csvRows(await res.text())
       expect(header![2]).toBe(`Peak power (${analysis.units.power})`)
       expect(rows).toHaveLength(analysis.table.rows.length)
       analysis.table.rows.forEach((r: any, i: number) => {
@@ -141,7 +118,7 @@ describe('download the data', () => {
     await testDb()('setups').where({ id: bench.camId }).update({ label: '=HYPERLINK("x")' })
     try {
       const res = await fetch(`${new Client().base}/api/magazine/stories/${slugs.published}/data.csv?units=kw-nm`)
-      const rows = parseCsv(await res.text())
+      const rows = csvRows(await res.text())
       expect(rows.map(r => r[0])).toContain('\'=HYPERLINK("x")')
     }
     finally {

@@ -10,7 +10,6 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Page } from 'playwright-core'
 import { ANALYSIS_GRID } from '#shared/types/workspace'
 import {
   applyCorrection, averagePulls, correctionStandardInfo, hpToKw, lbFtToNm, parsePullCsv, peakOf, reportRound, syntheticPull, valueAt,
@@ -23,7 +22,8 @@ import { BASE_URL, DEMO_PASSWORD } from '../support/http'
 import { caughtMail, waitForMail } from '../support/mail'
 import { makeJpeg } from '../support/photos'
 import { expectOk, newWriter } from '../support/workspace'
-import { WRITER_PASSWORD, figuresOf, poll, saveStateIs, typeInBody } from './stories-fixtures'
+import { csvRows } from '../support/csv'
+import { WRITER_PASSWORD, figuresOf, pick, poll, saveStateIs, typeInBody } from './stories-fixtures'
 
 const EDITOR = 'editor@example.com'
 const RUN = Date.now().toString(36)
@@ -61,43 +61,6 @@ function expectedCurve(setup: (typeof SETUPS)[number]): PullPoint[] {
 const escape = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
 const subject = (prefix: string) => new RegExp(`^${escape(prefix)}: ${escape(HEADLINE)}$`)
 const figure = (text: string | null) => Number((text ?? '').replace(/[^\d.-]/g, ''))
-
-/** RFC 4180 rows (quoted cells may hold commas, quotes and line breaks). */
-function csvRows(text: string): string[][] {
-  const rows: string[][] = []
-  let row: string[] = []
-  let cell = ''
-  let quoted = false
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i]!
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { cell += '"'; i++ }
-      else if (c === '"') quoted = false
-      else cell += c
-    }
-    else if (c === '"') quoted = true
-    else if (c === ',') { row.push(cell); cell = '' }
-    else if (c === '\n' || c === '\r') {
-      if (c === '\r' && text[i + 1] === '\n') i++
-      row.push(cell)
-      rows.push(row)
-      row = []
-      cell = ''
-    }
-    else cell += c
-  }
-  if (cell || row.length) rows.push([...row, cell])
-  return rows
-}
-
-async function pick(page: Page, choose: (picker: ReturnType<Page['getByTestId']>) => Promise<void>) {
-  await page.getByTestId('picker-open').click()
-  const picker = page.getByTestId('picker')
-  await picker.waitFor()
-  await choose(picker)
-  await picker.getByTestId('picker-insert').click()
-  await picker.waitFor({ state: 'hidden' })
-}
 
 describe('from the operator\'s upload link to the reader\'s download', () => {
   let writerAccount: Awaited<ReturnType<typeof newWriter>>

@@ -4,19 +4,16 @@
 // opens on a click or Enter, shows the photo large, steps with the arrow keys, closes
 // on Escape or its button and gives focus back; axe-core finds nothing serious with it
 // open. A body that places its own ::gallery gets that instead of the reader's gallery.
-import { readFileSync } from 'node:fs'
-import { createRequire } from 'node:module'
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PHOTO_WIDTHS, type Photo } from '#shared/types/photos'
+import { seriousViolations } from '../support/axe'
 import { gotoReady, openBrowser, type BrowserSession } from '../support/browser'
 import { closeTestDb } from '../support/db'
 import { signedIn, type Client } from '../support/http'
 import { makeJpeg, uploadPhoto, waitForPhoto, type Paint } from '../support/photos'
 import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
 import { DEMO, expectOk } from '../support/workspace'
-
-const AXE = createRequire(import.meta.url).resolve('axe-core/axe.min.js')
 
 // Widths that are none of the standard sizes, so each photo also gets its own width.
 const HERO = { width: 1800, height: 1200, caption: 'The test engine on the stand before the first pull', credit: 'Fenwick Dray', altText: 'A V8 bolted to the dyno stand, water lines attached' }
@@ -82,18 +79,6 @@ beforeAll(async () => {
 }, 180_000)
 
 afterAll(closeTestDb)
-
-async function seriousViolations(page: Page) {
-  // Evaluated through the debugging protocol: the page's CSP (script hashes) would refuse an injected <script>.
-  await page.evaluate(readFileSync(AXE, 'utf8'))
-  const result = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document) => Promise<{ violations: { id: string, impact: string, nodes: { target: string[] }[] }[] }> } }).axe
-    return axe.run(document)
-  })
-  return result.violations
-    .filter(v => v.impact === 'serious' || v.impact === 'critical')
-    .map(v => `${v.id} (${v.impact}): ${v.nodes.slice(0, 3).map(n => n.target.join(' ')).join(', ')}`)
-}
 
 /** The attributes of every image under `selector`, from a document parsed out of `html` (or the live page). */
 async function imagesIn(page: Page, selector: string, html?: string): Promise<ImgAttrs[]> {

@@ -4,17 +4,15 @@
 // critical problem on the home page, a story and search. Screenshots at phone and
 // desktop widths go to .data/test/screenshots.
 import { mkdirSync, readFileSync } from 'node:fs'
-import { createRequire } from 'node:module'
 import { join } from 'node:path'
-import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { seriousViolations } from '../support/axe'
 import { openBrowser, type BrowserSession } from '../support/browser'
 import { signedIn } from '../support/http'
 import { expectOk } from '../support/workspace'
 import { createStory, storyBench, transition, type StoryBench } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
-const AXE = createRequire(import.meta.url).resolve('axe-core/axe.min.js')
 const word = `quindle${Math.random().toString(36).slice(2, 7)}`
 let bench: StoryBench
 let slug = ''
@@ -41,18 +39,6 @@ beforeAll(async () => {
   expectOk(await transition(editor, story.id, 'publish_now'))
   slug = story.slug
 }, 120_000)
-
-async function seriousViolations(page: Page) {
-  // Evaluated through the debugging protocol: the page's CSP (script hashes) would refuse an injected <script>.
-  await page.evaluate(readFileSync(AXE, 'utf8'))
-  const result = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document) => Promise<{ violations: { id: string, impact: string, nodes: { target: string[] }[] }[] }> } }).axe
-    return axe.run(document)
-  })
-  return result.violations
-    .filter(v => v.impact === 'serious' || v.impact === 'critical')
-    .map(v => `${v.id} (${v.impact}): ${v.nodes.slice(0, 3).map(n => n.target.join(' ')).join(', ')}`)
-}
 
 describe('a reader on a story', () => {
   let browser: BrowserSession

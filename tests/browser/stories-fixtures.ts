@@ -74,3 +74,13 @@ export function acceptLeaving(page: Page) {
     if (d.type() === 'beforeunload') await d.accept()
   })
 }
+
+/** Inserts a figure through the editor's picker: open it, let `choose` fill it in, insert. */
+export async function pick(page: Page, choose: (picker: ReturnType<Page['getByTestId']>) => Promise<void>): Promise<void> {
+  await page.getByTestId('picker-open').click()
+  const picker = page.getByTestId('picker')
+  await picker.waitFor()
+  await choose(picker)
+  await picker.getByTestId('picker-insert').click()
+  await picker.waitFor({ state: 'hidden' })
+}

@@ -3,14 +3,13 @@
 // the editor checks the numbers, approves and schedules it seconds ahead; the
 // publishing job puts it live at its time; the e-mails are in the catcher.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import type { Page } from 'playwright-core'
 import { reportRound } from '#shared/dyno'
 import { SITE_TIME_ZONE, toZonedInput } from '#shared/utils/story-time'
 import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD, signedIn } from '../support/http'
 import { waitForMail } from '../support/mail'
 import { expectOk } from '../support/workspace'
-import { benchWithPulls, figuresOf, poll, saveStateIs, typeInBody, type StoryBench } from './stories-fixtures'
+import { benchWithPulls, figuresOf, pick, poll, saveStateIs, typeInBody, type StoryBench } from './stories-fixtures'
 
 const EDITOR = 'editor@example.com'
 const HEADLINE = `A longer cam, tested ${Date.now().toString(36)}`
@@ -33,15 +32,6 @@ describe('a story from the writer\'s first words to publication', () => {
     await writer?.close()
     await editor?.close()
   })
-
-  async function pick(page: Page, setup: (picker: ReturnType<Page['getByTestId']>) => Promise<void>) {
-    await page.getByTestId('picker-open').click()
-    const picker = page.getByTestId('picker')
-    await picker.waitFor()
-    await setup(picker)
-    await picker.getByTestId('picker-insert').click()
-    await picker.waitFor({ state: 'hidden' })
-  }
 
   it('starts a story from the bench test on My stories', async () => {
     const { page } = writer
