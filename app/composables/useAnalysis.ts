@@ -1,4 +1,5 @@
-import type { AnalysisResponse, AnalysisUnits } from '#shared/types/workspace'
+import type { AnalysisUnits } from '#shared/types/analysis'
+import type { AnalysisResponse } from '#shared/types/workspace'
 import type { CorrectionStandard } from '#shared/dyno'
 
 export interface AnalysisChoice {

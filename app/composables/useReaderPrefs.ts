@@ -1,4 +1,6 @@
-import { ReaderPreferencesBody, type ReaderPreferences } from '#shared/types/magazine'
+import type { ReaderPreferences } from '#shared/types/magazine'
+import { ANALYSIS_UNITS } from '#shared/types/analysis'
+import { CORRECTION_STANDARD_IDS } from '#shared/dyno/correction'
 
 const STORAGE_KEY = 'pullsheet:reader-prefs'
 export const readerPrefsKey = () => 'reader-prefs'
@@ -17,8 +19,7 @@ export function useReaderPrefs() {
   async function load() {
     if (import.meta.server || loaded.value) return
     loaded.value = true
-    const local = ReaderPreferencesBody.safeParse(readLocal())
-    if (local.success) prefs.value = { units: local.data.units ?? null, standard: local.data.standard ?? null }
+    prefs.value = readLocal()
     if (!signedIn.value) return
     try {
       const res = await $fetch<{ preferences: ReaderPreferences }>('/api/preferences')
@@ -39,7 +40,14 @@ export function useReaderPrefs() {
   return { prefs, load, save }
 }
 
-function readLocal(): unknown {
-  try { return JSON.parse(localStorage.getItem(STORAGE_KEY) ?? 'null') ?? {} }
-  catch { return {} }
+// By hand, not with the PATCH body's zod schema: zod would then be part of every
+// story page's first-load JavaScript. Anything not a current choice counts as none.
+function readLocal(): ReaderPreferences {
+  let kept: Record<string, unknown> = {}
+  try { kept = JSON.parse(localStorage.getItem(STORAGE_KEY) ?? 'null') ?? {} }
+  catch { /* unreadable: nothing kept */ }
+  return {
+    units: ANALYSIS_UNITS.find(u => u.id === kept.units)?.id ?? null,
+    standard: CORRECTION_STANDARD_IDS.find(id => id === kept.standard) ?? null,
+  }
 }

@@ -1,6 +1,7 @@
 import type { MagazineStoryResponse } from '#shared/types/magazine'
 import type { StoryFigures } from '#shared/types/stories'
-import type { AnalysisResponse, AnalysisUnits } from '#shared/types/workspace'
+import type { AnalysisUnits } from '#shared/types/analysis'
+import type { AnalysisResponse } from '#shared/types/workspace'
 import type { CorrectionStandard } from '#shared/dyno'
 
 export const storyPageKey = (slug: string) => `magazine:story:${slug}`

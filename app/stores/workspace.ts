@@ -1,5 +1,5 @@
 import { defineStore } from 'pinia'
-import type { AnalysisUnits } from '#shared/types/workspace'
+import type { AnalysisUnits } from '#shared/types/analysis'
 import type { CorrectionStandard } from '#shared/dyno'
 
 interface AnalysisView {

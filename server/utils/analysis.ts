@@ -6,9 +6,9 @@ import {
   averagePulls, comparePulls, correctionFactor, correctionStandardInfo, downsampleForDisplay, hpToKw, lbFtToNm, repeatSpread, resample, resultsTable,
   type AtRpm, type CorrectionStandard, type PullPoint, type ResultsRow, type RowGains, type Weather,
 } from '../../shared/dyno/index'
-import {
-  ANALYSIS_GRID, ANALYSIS_UNITS,
-  type AnalysisGains, type AnalysisQueryInput, type AnalysisResponse, type AnalysisRow, type AnalysisSetup, type AnalysisUnits, type BenchTest, type CurvePoint, type GainCurve,
+import { ANALYSIS_GRID, ANALYSIS_UNITS, type AnalysisUnits } from '../../shared/types/analysis'
+import type {
+  AnalysisGains, AnalysisQueryInput, AnalysisResponse, AnalysisRow, AnalysisSetup, BenchTest, CurvePoint, GainCurve,
 } from '../../shared/types/workspace'
 import { LruCache } from '#shared/utils/lru-cache'
 import { decodePoints } from './pull-points'

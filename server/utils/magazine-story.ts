@@ -3,7 +3,8 @@
 // for the desk (its bylines, editors and admins), who see it marked as a preview.
 import type { Knex } from 'knex'
 import type { z } from 'zod'
-import { ANALYSIS_UNITS, AnalysisQuery, type AnalysisQueryInput, type AnalysisResponse } from '#shared/types/workspace'
+import { ANALYSIS_UNITS } from '#shared/types/analysis'
+import { AnalysisQuery, type AnalysisQueryInput, type AnalysisResponse } from '#shared/types/workspace'
 import type { FigureComparison } from '#shared/types/story-figures'
 import type { StoryReaderView } from '#shared/types/stories'
 import type { MagazineStoryResponse } from '#shared/types/magazine'

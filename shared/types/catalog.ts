@@ -1,4 +1,5 @@
-import { z } from 'zod'
+// No zod here: the reader's pages show these labels, and a zod schema built at a
+// module's top level would come with them; the schemas are in ./catalog-schemas.ts.
 
 /** Engine families readers browse by; our own list. */
 export const ENGINE_FAMILIES = [
@@ -13,7 +14,6 @@ export const ENGINE_FAMILIES = [
 ] as const
 export type EngineFamily = typeof ENGINE_FAMILIES[number]['id']
 export const ENGINE_FAMILY_IDS = ENGINE_FAMILIES.map(f => f.id) as [EngineFamily, ...EngineFamily[]]
-export const EngineFamilySchema = z.enum(ENGINE_FAMILY_IDS)
 
 /** What a bench test changes; our own list. */
 export const PART_TYPES = [
@@ -29,7 +29,6 @@ export const PART_TYPES = [
 ] as const
 export type PartType = typeof PART_TYPES[number]['id']
 export const PART_TYPE_IDS = PART_TYPES.map(p => p.id) as [PartType, ...PartType[]]
-export const PartTypeSchema = z.enum(PART_TYPE_IDS)
 
 export function labelOf(list: readonly { id: string, label: string }[], id: string): string {
   return list.find(item => item.id === id)?.label ?? id

@@ -3,7 +3,8 @@ import { z } from 'zod'
 import type { CorrectionStandard } from '../dyno/index'
 import type { EngineFamily, PartType } from './catalog'
 import type { StoryPhoto, StoryReaderView } from './stories'
-import { ANALYSIS_UNITS, CorrectionStandardSchema, type AnalysisUnits } from './workspace'
+import { ANALYSIS_UNITS, type AnalysisUnits } from './analysis'
+import { CorrectionStandardSchema } from './workspace'
 
 export interface MagazineStoryCard {
   slug: string

@@ -3,7 +3,8 @@
 // handlers and the forms. Routes and statuses: docs/api/stories.md.
 // Times are UTC ISO 8601 strings; the interface shows them in the site's and the user's zone.
 import { z } from 'zod'
-import { EngineFamilySchema, PartTypeSchema, type EngineFamily, type PartType } from './catalog'
+import type { EngineFamily, PartType } from './catalog'
+import { EngineFamilySchema, PartTypeSchema } from './catalog-schemas'
 import type { Role } from './roles'
 import { StoryActionSchema, StoryStateSchema, type StoryAction, type StoryGuard, type StoryState } from './story-workflow'
 import type { FigureComparison, FigureUnit, InlineFigureKey } from './story-figures'

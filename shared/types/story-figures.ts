@@ -8,21 +8,117 @@
 // (Not `:figure`, which the renderer would confuse with the HTML <figure> element.)
 // Setup and photo ids are the database ids of the story's bench test; they stay
 // put when setups are reordered. MDC hands every value over as written, so the
-// option schemas accept "12" as well as 12.
-import { z } from 'zod'
+// options accept "12" as well as 12.
+//
+// The options are read by the small readers below, not by zod: every figure
+// component checks its options in the reader's browser, and zod would be the
+// largest part of a story page's JavaScript. A check answers in the shape of a
+// zod safeParse, so the server's, the editor's and the figures' issue lists read
+// both alike.
 import { reportFixed, reportRound } from '../dyno/round'
 import type { AnalysisGains, AnalysisResponse, AnalysisRow } from './workspace'
 
+// ---------- reading options ----------
+
+/** One problem with a figure's options; path [] is about the options as a whole. */
+export interface FigureOptionIssue { path: (string | number)[], message: string }
+
+export type FigureOptionsResult<T>
+  = { success: true, data: T, error?: never } | { success: false, data?: never, error: { issues: FigureOptionIssue[] } }
+
+export interface FigureOptionsSchema<T> {
+  /** The option names the figure takes; any other is refused. */
+  readonly names: readonly string[]
+  safeParse(input: unknown): FigureOptionsResult<T>
+}
+
+/** How one option is read: its value, or what is wrong with it. */
+type OptionReader<T> = (written: unknown) => { value: T } | { problem: string }
+
+/** Options from one reader per name, then a check of them together (only when each is right). */
+function figureOptions<T extends object>(
+  readers: { [K in keyof T]-?: OptionReader<T[K]> },
+  together?: (options: T) => FigureOptionIssue | null,
+): FigureOptionsSchema<T> {
+  const names = Object.keys(readers)
+  return {
+    names,
+    safeParse(input) {
+      if (!input || typeof input !== 'object' || Array.isArray(input)) {
+        return { success: false, error: { issues: [{ path: [], message: 'Give the options as name=value pairs' }] } }
+      }
+      const written = input as Record<string, unknown>
+      const issues: FigureOptionIssue[] = []
+      const data: Record<string, unknown> = {}
+      for (const name of names) {
+        const read = (readers as Record<string, OptionReader<unknown>>)[name]!(written[name])
+        if ('problem' in read) issues.push({ path: [name], message: read.problem })
+        else if (read.value !== undefined) data[name] = read.value
+      }
+      for (const name of Object.keys(written)) {
+        if (!names.includes(name)) issues.push({ path: [], message: `"${name}" is not an option of this figure` })
+      }
+      const issue = !issues.length && together ? together(data as T) : null
+      if (issue) issues.push(issue)
+      return issues.length ? { success: false, error: { issues } } : { success: true, data: data as T }
+    },
+  }
+}
+
+const optional = <T>(read: OptionReader<T>): OptionReader<T | undefined> =>
+  written => (written === undefined ? { value: undefined } : read(written))
+
+const withDefault = <T>(read: OptionReader<T>, fallback: T): OptionReader<T> =>
+  written => (written === undefined ? { value: fallback } : read(written))
+
+interface WholeNumberRule { notANumber: string, notWhole: string, min: number, belowMin: string, max?: number, aboveMax?: string }
+
+/** A whole number as Number() reads what was written ("12", 12, " 12 "). */
+function wholeNumber(rule: WholeNumberRule): OptionReader<number> {
+  return (written) => {
+    const n = Number(written)
+    if (!Number.isFinite(n)) return { problem: rule.notANumber }
+    if (!Number.isSafeInteger(n)) return { problem: rule.notWhole }
+    if (n < rule.min) return { problem: rule.belowMin }
+    if (rule.max !== undefined && n > rule.max) return { problem: rule.aboveMax ?? rule.belowMin }
+    return { value: n }
+  }
+}
+
+function oneOf<T extends string>(ids: readonly T[], problem: string): OptionReader<T> {
+  return written => (ids.includes(written as T) ? { value: written as T } : { problem })
+}
+
 const ID_LIST = /^\s*\d+(\s*,\s*\d+)*\s*$/
 
-const IdProp = z.coerce.number({ error: 'Use a number id' }).int('Use a whole-number id').positive('Use an id above 0')
-const IdListProp = z.union([
-  z.string().regex(ID_LIST, 'Use ids separated by commas, like "12,13"').transform(s => s.split(',').map(Number)),
-  z.array(IdProp),
-]).transform(list => [...new Set(list)])
-  .refine(list => list.length >= 1 && list.length <= 24, 'Name from 1 to 24 ids')
-const RpmProp = z.coerce.number({ error: 'Use an rpm as a number' }).int('Use a whole rpm').min(0).max(20_000, 'Above 20,000 rpm is not plausible')
-const CaptionProp = z.string().max(500, 'Keep the caption under 500 characters')
+const IdOption = wholeNumber({ notANumber: 'Use a number id', notWhole: 'Use a whole-number id', min: 1, belowMin: 'Use an id above 0' })
+
+/** "12,13" (or a list of ids), each id once, from 1 to 24 of them. */
+const IdListOption: OptionReader<number[]> = (written) => {
+  let ids: number[]
+  if (typeof written === 'string' && ID_LIST.test(written)) ids = written.split(',').map(Number)
+  else if (Array.isArray(written)) {
+    const read = written.map(IdOption)
+    const bad = read.find(r => 'problem' in r)
+    if (bad) return bad
+    ids = read.map(r => (r as { value: number }).value)
+  }
+  else return { problem: 'Use ids separated by commas, like "12,13"' }
+  const once = [...new Set(ids)]
+  return once.length >= 1 && once.length <= 24 ? { value: once } : { problem: 'Name from 1 to 24 ids' }
+}
+
+const RpmOption = wholeNumber({
+  notANumber: 'Use an rpm as a number', notWhole: 'Use a whole rpm',
+  min: 0, belowMin: 'Use an rpm of 0 or more', max: 20_000, aboveMax: 'Above 20,000 rpm is not plausible',
+})
+
+const CaptionOption: OptionReader<string> = (written) => {
+  if (typeof written !== 'string') return { problem: 'Write the caption as text' }
+  return written.length > 500 ? { problem: 'Keep the caption under 500 characters' } : { value: written }
+}
+
+const quotedList = (ids: readonly string[]) => ids.map(id => `"${id}"`).join(', ')
 
 export const GRAPH_CHANNELS = [
   { id: 'both', label: 'Power and torque' },
@@ -30,54 +126,58 @@ export const GRAPH_CHANNELS = [
   { id: 'torque', label: 'Torque' },
 ] as const
 export type GraphChannel = typeof GRAPH_CHANNELS[number]['id']
-const ChannelProp = z.enum(GRAPH_CHANNELS.map(c => c.id) as [GraphChannel, ...GraphChannel[]])
+const GRAPH_CHANNEL_IDS = GRAPH_CHANNELS.map(c => c.id)
+const ChannelOption = withDefault(oneOf(GRAPH_CHANNEL_IDS, `Use one of ${quotedList(GRAPH_CHANNEL_IDS)}`), 'both')
 
-const rpmInOrder = (o: { from?: number, to?: number }) => o.from === undefined || o.to === undefined || o.from < o.to
-const RPM_ORDER = { message: '"from" is below "to"', path: ['to'] }
+const rpmInOrder = (o: { from?: number, to?: number }): FigureOptionIssue | null =>
+  o.from === undefined || o.to === undefined || o.from < o.to ? null : { path: ['to'], message: '"from" is below "to"' }
+
+export interface PullGraphOptions { setups?: number[], channel: GraphChannel, from?: number, to?: number, caption?: string }
+
+const GRAPH_OPTIONS = {
+  setups: optional(IdListOption),
+  channel: ChannelOption,
+  from: optional(RpmOption),
+  to: optional(RpmOption),
+  caption: optional(CaptionOption),
+}
 
 /** Overlay of setups' curves against rpm. Without setups: every analysed setup. */
-export const PullGraphProps = z.strictObject({
-  setups: IdListProp.optional(),
-  channel: ChannelProp.default('both'),
-  from: RpmProp.optional(),
-  to: RpmProp.optional(),
-  caption: CaptionProp.optional(),
-}).refine(rpmInOrder, RPM_ORDER)
+export const PullGraphProps = figureOptions<PullGraphOptions>(GRAPH_OPTIONS, rpmInOrder)
+
+export interface GainGraphOptions extends PullGraphOptions { baseline?: number }
 
 /** Gain curves (setup minus baseline at each rpm). Without baseline: the bench test's. */
-export const GainGraphProps = z.strictObject({
-  baseline: IdProp.optional(),
-  setups: IdListProp.optional(),
-  channel: ChannelProp.default('both'),
-  from: RpmProp.optional(),
-  to: RpmProp.optional(),
-  caption: CaptionProp.optional(),
-}).refine(rpmInOrder, RPM_ORDER)
+export const GainGraphProps = figureOptions<GainGraphOptions>({ baseline: optional(IdOption), ...GRAPH_OPTIONS }, rpmInOrder)
 
 /** The results table: peaks, averages, gains, power band, idle vacuum. */
-export const ResultsTableProps = z.strictObject({
-  setups: IdListProp.optional(),
-  baseline: IdProp.optional(),
-  caption: CaptionProp.optional(),
+export const ResultsTableProps = figureOptions<{ setups?: number[], baseline?: number, caption?: string }>({
+  setups: optional(IdListOption),
+  baseline: optional(IdOption),
+  caption: optional(CaptionOption),
 })
 
 /** The build sheet of the bench test's engine. */
-export const SpecBoxProps = z.strictObject({ caption: CaptionProp.optional() })
+export const SpecBoxProps = figureOptions<{ caption?: string }>({ caption: optional(CaptionOption) })
 
 /** A setup's cam card (durations, lifts, LSA, ICL and the events computed from them). */
-export const CamCardProps = z.strictObject({ setup: IdProp, caption: CaptionProp.optional() })
+export const CamCardProps = figureOptions<{ setup: number, caption?: string }>({ setup: IdOption, caption: optional(CaptionOption) })
 
 export const PHOTO_SIZES = [{ id: 'wide', label: 'Full width' }, { id: 'inline', label: 'In the text column' }] as const
 export type PhotoSize = typeof PHOTO_SIZES[number]['id']
+const PHOTO_SIZE_IDS = PHOTO_SIZES.map(s => s.id)
 
 /** One photo of the bench test with its caption and credit. */
-export const PhotoProps = z.strictObject({ id: IdProp, size: z.enum(['wide', 'inline']).default('wide') })
+export const PhotoProps = figureOptions<{ id: number, size: PhotoSize }>({
+  id: IdOption,
+  size: withDefault(oneOf(PHOTO_SIZE_IDS, `Use one of ${quotedList(PHOTO_SIZE_IDS)}`), 'wide'),
+})
 
 /** Several photos in a row or grid. */
-export const GalleryProps = z.strictObject({ ids: IdListProp, caption: CaptionProp.optional() })
+export const GalleryProps = figureOptions<{ ids: number[], caption?: string }>({ ids: IdListOption, caption: optional(CaptionOption) })
 
 /** The usual cautions (brief: "Cautions"); the text is the site's own, not the writer's. */
-export const CautionsProps = z.strictObject({})
+export const CautionsProps = figureOptions<Record<never, never>>({})
 
 export const BLOCK_FIGURES = [
   { name: 'pull-graph', label: 'Pull graph', schema: PullGraphProps, example: '::pull-graph{setups="1,2" channel="power"}' },
@@ -130,16 +230,17 @@ export const INLINE_FIGURES = [
   { id: 'idle-vacuum-change', label: 'Change of idle vacuum', unit: 'inHg', pair: true },
 ] as const satisfies readonly { id: string, label: string, unit: FigureUnit, pair: boolean }[]
 export type InlineFigureKey = typeof INLINE_FIGURES[number]['id']
-export const InlineFigureKeySchema = z.enum(INLINE_FIGURES.map(f => f.id) as [InlineFigureKey, ...InlineFigureKey[]], { error: 'Choose a figure the data gives' })
+
+export interface FigureValueOptions { of: InlineFigureKey, setup: number, vs?: number, decimals?: number }
+const DECIMALS = 'Use 0, 1 or 2 decimals'
 
 /** `:figure-value{of="peak-power-gain" setup=13 vs=12}`; decimals overrides the reporting default. */
-export const FigureValueProps = z.strictObject({
-  of: InlineFigureKeySchema,
-  setup: IdProp,
-  vs: IdProp.optional(),
-  decimals: z.coerce.number().int().min(0).max(2).optional(),
+export const FigureValueProps = figureOptions<FigureValueOptions>({
+  of: oneOf(INLINE_FIGURES.map(f => f.id), 'Choose a figure the data gives'),
+  setup: IdOption,
+  vs: optional(IdOption),
+  decimals: optional(wholeNumber({ notANumber: DECIMALS, notWhole: DECIMALS, min: 0, belowMin: DECIMALS, max: 2 })),
 })
-export type FigureValueOptions = z.infer<typeof FigureValueProps>
 
 /** Reporting precision (brief: peaks to the unit shown; one decimal where it matters). */
 export const DEFAULT_DECIMALS: Record<FigureUnit, number> = { 'hp': 0, 'lb-ft': 0, 'rpm': 0, 'inHg': 1, '%': 1 }

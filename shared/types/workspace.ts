@@ -3,7 +3,9 @@
 // Routes and statuses: docs/api/workspace.md. Figures are in the unit their name
 // says (In = inches, Cc = cubic centimetres, Deg = crank degrees, InHg, F, Pct).
 import { z } from 'zod'
-import { EngineFamilySchema, PartTypeSchema, type EngineFamily, type PartType } from './catalog'
+import type { EngineFamily, PartType } from './catalog'
+import { ANALYSIS_UNITS, type AnalysisUnits } from './analysis'
+import { EngineFamilySchema, PartTypeSchema } from './catalog-schemas'
 import { CORRECTION_STANDARD_IDS } from '../dyno/correction'
 import { COLUMN_ROLES, type ColumnRole } from '../dyno/csv'
 import type { AtRpm, CorrectionStandard, PowerUnit, Problem, RpmRange, TorqueUnit, VacuumUnit, Weather } from '../dyno/types'
@@ -35,13 +37,6 @@ export const OPERATOR_LINK_LIMITS = {
 } as const
 
 export const MAX_PARTS_PER_SETUP = 20
-
-/**
- * Grids of the analysis (common practice). A setup's curve is the mean of its pulls on
- * a fine grid, and peaks, averages and the power band come from it; gains, crossovers
- * and the spread between repeat pulls are judged at the trade's usual 100 rpm steps.
- */
-export const ANALYSIS_GRID = { curveStepRpm: 10, compareStepRpm: 100 } as const
 
 // ---------- small shared schemas ----------
 
@@ -587,12 +582,6 @@ export type AssignInboxInput = z.infer<typeof AssignInboxBody>
 export const InboxPreviewBody = z.object({ mapping: ColumnMappingSchema.optional() })
 
 // ---------- analysis ----------
-
-export const ANALYSIS_UNITS = [
-  { id: 'hp-lbft', label: 'hp and lb-ft', power: 'hp', torque: 'lb-ft' },
-  { id: 'kw-nm', label: 'kW and N-m', power: 'kW', torque: 'N-m' },
-] as const
-export type AnalysisUnits = typeof ANALYSIS_UNITS[number]['id']
 
 const idList = z.string().regex(/^\d+(,\d+)*$/, 'A comma-separated list of setup ids')
   .transform(s => [...new Set(s.split(',').map(Number))])

@@ -4,7 +4,8 @@
 // table under each graph and the written summary for screen readers. Pure: the
 // server's SVG render, the live graph and the tables all read the same numbers.
 import { hpToKw, lbFtToNm } from '../dyno/units'
-import { ANALYSIS_GRID, type AnalysisGains, type AnalysisResponse, type CurvePoint } from '../types/workspace'
+import { ANALYSIS_GRID } from '../types/analysis'
+import type { AnalysisGains, AnalysisResponse, CurvePoint } from '../types/workspace'
 import { formatFigureNumber, type FigureComparison } from '../types/story-figures'
 import { curveValueAt, type ChartCurve, type ChartUnits } from './chart-options'
 

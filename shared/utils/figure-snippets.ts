@@ -1,7 +1,7 @@
 // The MDC text the editor's figure picker puts into a story body, built from the
 // options chosen, checked by the same schemas the server and the figures use.
 import { BLOCK_FIGURES, FigureValueProps, INLINE_FIGURE_NAME, type BlockFigureName } from '../types/story-figures'
-import { parseMdcAttributes } from './story-body'
+import { parseMdcAttributes } from './story-markup'
 
 export type SnippetValue = string | number | readonly number[] | undefined | null
 

@@ -8,7 +8,8 @@ import {
 } from '../types/story-figures'
 import type { FigureCandidate, NumberFinding } from '../types/stories'
 import type { AnalysisGains, AnalysisRow, Weather } from '../types/workspace'
-import { findFigures, parseFigure, proseLines } from './story-body'
+import { parseFigure } from './story-body'
+import { findFigures, proseLines } from './story-markup'
 
 // ---------- the numbers of the prose ----------
 

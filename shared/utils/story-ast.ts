@@ -2,9 +2,9 @@
 // a story may contain before anything renders it. The server already refuses
 // unsafe bodies on save (story-body.ts); this is the second wall, and the one that
 // matters for whatever slipped past the first: an allowlist, not a blocklist.
-// MDC's renderer would otherwise turn any tag into a global component, bind
-// `:prop` and `v-bind` values from its context, and pass `onerror`-style
-// attributes to the DOM as written.
+// The renderer (app/components/story/StoryBodyTree.vue) draws every tag and
+// attribute it is given as written, `onerror`-style ones too; MDC's would also
+// turn any tag into a global component and bind `:prop` values from its context.
 import { BLOCK_FIGURES, FigureValueProps, INLINE_FIGURE_NAME } from '../types/story-figures'
 
 export interface StoryAstText { type: 'text', value: string }
@@ -14,8 +14,8 @@ export interface StoryAstRoot { type: 'root', children: StoryAstNode[] }
 
 /** Figure names as they are written in the body, each with the props it takes. */
 export const FIGURE_TAGS: Readonly<Record<string, readonly string[]>> = Object.fromEntries([
-  ...BLOCK_FIGURES.map(f => [f.name, Object.keys(f.schema.shape)]),
-  [INLINE_FIGURE_NAME, Object.keys(FigureValueProps.shape)],
+  ...BLOCK_FIGURES.map(f => [f.name, f.schema.names]),
+  [INLINE_FIGURE_NAME, FigureValueProps.names],
 ])
 
 /** Plain text formatting a story may use, with the attributes each keeps. */
@@ -41,6 +41,9 @@ const DROPPED_WITH_CONTENT = new Set(['script', 'style', 'iframe', 'frame', 'fra
   'portal', 'video', 'audio', 'canvas', 'map', 'input', 'button'])
 
 const MAX_DEPTH = 48
+
+// A tag is looked up among the table's own keys: <constructor> is not Object's.
+const own = <T>(table: Readonly<Record<string, T>>, key: string): T | undefined => (Object.hasOwn(table, key) ? table[key] : undefined)
 
 const SAFE_URL = /^(?:https?:\/\/|mailto:|\/(?!\/)|#|\.{1,2}\/)/i
 const HAS_SCHEME = /^[a-z][a-z0-9+.-]*:/i
@@ -111,13 +114,13 @@ function cleanNode(node: { type?: unknown, value?: unknown, tag?: unknown, props
   // {{ $doc.x }} reads (and calls) things in the renderer's context: show it as written.
   if (tag === 'binding') return [{ type: 'text', value: `{{ ${String(node.props?.value ?? '')} }}` }]
   if (DROPPED_WITH_CONTENT.has(tag)) return []
-  const figureProps = FIGURE_TAGS[tag]
+  const figureProps = own(FIGURE_TAGS, tag)
   if (figureProps) {
     // Figures take options only; whatever was written inside them is not shown.
     return [{ type: 'element', tag, props: cleanProps(tag, node.props ?? {}, figureProps), children: [] }]
   }
-  const renamed = RENAMED[tag] ?? tag
-  const allowed = TEXT_TAGS[renamed]
+  const renamed = own(RENAMED, tag) ?? tag
+  const allowed = own(TEXT_TAGS, renamed)
   const children = cleanChildren(node.children, depth)
   if (!allowed) return children
   return [{ type: 'element', tag: renamed, props: cleanProps(renamed, node.props ?? {}, allowed), children }]
@@ -134,7 +137,7 @@ export function figureTagsIn(root: StoryAstRoot): string[] {
   const walk = (nodes: StoryAstNode[]) => {
     for (const n of nodes) {
       if (n.type !== 'element') continue
-      if (FIGURE_TAGS[n.tag]) found.add(n.tag)
+      if (own(FIGURE_TAGS, n.tag)) found.add(n.tag)
       walk(n.children)
     }
   }

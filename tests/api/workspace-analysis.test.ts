@@ -2,7 +2,7 @@
 // server adds storage, correction per pull and averaging, and must not change a figure.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { applyCorrection, averagePulls, correctionFactor, parsePullCsv, repeatSpread, reportRound, resultsTable, type CorrectionStandard, type ResultsRow } from '#shared/dyno'
-import { ANALYSIS_GRID } from '#shared/types/workspace'
+import { ANALYSIS_GRID } from '#shared/types/analysis'
 import type { Client } from '../support/http'
 import { closeTestDb } from '../support/db'
 import { createBenchTest, createSetup, expectOk, importFiles, newWriter, pullFile } from '../support/workspace'

@@ -10,7 +10,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { ANALYSIS_GRID } from '#shared/types/workspace'
+import { ANALYSIS_GRID } from '#shared/types/analysis'
 import {
   applyCorrection, averagePulls, correctionStandardInfo, hpToKw, lbFtToNm, parsePullCsv, peakOf, reportRound, syntheticPull, valueAt,
   type CorrectionStandard, type PullPoint,

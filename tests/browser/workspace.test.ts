@@ -4,7 +4,7 @@ import {
   applyCorrection, averagePulls, correctionFactor, hpToKw, lbFtToNm, parsePullCsv, peakOf, reportRound, syntheticPull,
   type AtRpm, type CorrectionStandard,
 } from '#shared/dyno'
-import { ANALYSIS_GRID } from '#shared/types/workspace'
+import { ANALYSIS_GRID } from '#shared/types/analysis'
 import { OKABE_ITO } from '#shared/utils/chart-options'
 import { formatReported } from '#shared/utils/figures'
 import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { findFigures, parseFigure } from '#shared/utils/story-body'
+import { parseFigure } from '#shared/utils/story-body'
+import { findFigures } from '#shared/utils/story-markup'
 import { blockFigureSnippet, inlineValueSnippet, insertSnippet } from '#shared/utils/figure-snippets'
 import { changedFields, copyDiffers, draftOf, parseDraftCopy, patchBody, tagsFromText } from '#shared/utils/story-draft'
 import { sideBySide } from '#shared/utils/revision-diff'

@@ -110,6 +110,14 @@ describe('a story body cut down to what a story may contain', () => {
     expect(text(root)).toContain('Inside the box.')
   })
 
+  it('takes a tag named like a property of every object for an unknown one', async () => {
+    const root = await clean('A <constructor>first</constructor> and\n\n::constructor\nsecond\n::')
+    expect(elements(root).map(e => e.tag)).not.toContain('constructor')
+    expect(text(root)).toContain('first')
+    expect(text(root)).toContain('second')
+    expect(figureTagsIn(sanitizeStoryAst({ children: [{ type: 'element', tag: 'hasOwnProperty', props: {}, children: [] }] }))).toEqual([])
+  })
+
   it('survives a tree nested deeper than any story needs', () => {
     let node: StoryAstNode = { type: 'text', value: 'deep' }
     for (let i = 0; i < 500; i++) node = { type: 'element', tag: 'span', props: {}, children: [node] }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { StoryBodySchema } from '#shared/types/stories'
-import { bodySafetyIssues, figureProblems, findFigures, parseMdcAttributes, photosUsed, proseLines } from '#shared/utils/story-body'
+import { bodySafetyIssues, figureProblems, photosUsed } from '#shared/utils/story-body'
+import { findFigures, parseMdcAttributes, proseLines } from '#shared/utils/story-markup'
 
 const ctx = { setupIds: new Set([11, 12, 13, 14]), analysedSetupIds: new Set([11, 12, 13]), photoIds: new Set([40, 41]) }
 
