@@ -57,7 +57,8 @@ describe('a crash mid-job', () => {
       return job?.status === 'running' ? job : undefined
     })
     expect(running.attempts).toBe(1)
-    expect((await testDb()('photos').where({ id: photoId }).first()).status).toBe('processing')
+    // The worker marks the photo just after it claims the job, in its own statement.
+    await until('the photo to be marked processing', async () => ((await testDb()('photos').where({ id: photoId }).first()).status === 'processing' ? true : undefined))
 
     // While the server lives, it renews its lease: a slow job is not taken away.
     await sleep(3000)
