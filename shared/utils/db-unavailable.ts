@@ -12,7 +12,9 @@ export function isDatabaseUnavailable(error: unknown, databasePort: number): boo
     if (e.code && DRIVER_CODES.has(e.code)) return true
     // mysql2 marks a lost or refused connection fatal; node's own socket errors carry the port.
     if (e.code && SOCKET_CODES.has(e.code) && (e.fatal === true || e.port === databasePort)) return true
-    if (typeof e.message === 'string' && /Connection lost: The server closed|Pool is closed|Knex: Timeout acquiring/i.test(e.message)) return true
+    // A transaction whose connection died under it fails its ROLLBACK with mysql2's
+    // closed-state error (fatal, no code): the database went away, not a bug.
+    if (typeof e.message === 'string' && /Connection lost: The server closed|Pool is closed|Knex: Timeout acquiring|Can't add new command when connection is in closed state|Can't write in closed state/i.test(e.message)) return true
   }
   return false
 }

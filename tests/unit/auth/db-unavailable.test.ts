@@ -14,6 +14,13 @@ describe('isDatabaseUnavailable', () => {
     expect(isDatabaseUnavailable(Object.assign(new Error('x'), { code: 'PROTOCOL_CONNECTION_LOST', fatal: true }), 3317)).toBe(true)
     expect(isDatabaseUnavailable(Object.assign(new Error('Knex: Timeout acquiring a connection.'), { name: 'KnexTimeoutError' }), 3317)).toBe(true)
   })
+  it('is true for a rollback on a connection that died mid-transaction', () => {
+    // mysql2 lib/base/connection.js, _addCommandClosedState (the message and fatal flag it sets);
+    // knex prefixes the statement. Seen in the database fault drill with an import in flight.
+    const closed = Object.assign(new Error('ROLLBACK - Can\'t add new command when connection is in closed state'), { fatal: true })
+    expect(isDatabaseUnavailable(closed, 3317)).toBe(true)
+    expect(isDatabaseUnavailable(new Error('wrapped', { cause: closed }), 3317)).toBe(true)
+  })
   it('is false for storage or mail refusing on their own ports', () => {
     expect(isDatabaseUnavailable(refused(4579), 3317)).toBe(false)
     expect(isDatabaseUnavailable(new Error('upload failed', { cause: refused(2535) }), 3317)).toBe(false)
