@@ -13,7 +13,6 @@ import type { EngineFamily, PartType } from '#shared/types/catalog'
 import { rolesAtLeast } from '#shared/types/roles'
 import { withRoundedCurves } from '#shared/utils/curve-precision'
 import { LruCache } from '#shared/utils/lru-cache'
-import { photosUsed } from '#shared/utils/story-body'
 import type { BenchTestRecord } from './bench-access'
 
 /** The reader's switches: correction standard and units (figures in the text stay in hp and lb-ft). */
@@ -130,12 +129,8 @@ async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineSt
   const { row } = story
   const benchRow = await benchTestOf(db, row.bench_test_id)
   const benchTest = toBenchTest(benchRow)
-  const used = await db('story_photos').where({ story_id: row.id }).pluck('photo_id') as number[]
-  if (row.hero_photo_id) used.push(row.hero_photo_id)
-  // The gallery follows the body: the photos in the order the text places them.
-  const order = [...photosUsed(row.body)]
-  const rank = (id: number) => (order.includes(id) ? order.indexOf(id) : order.length)
-  const photoIds = [...new Set(used)].sort((a, b) => rank(a) - rank(b) || a - b)
+  // Hero first, then the body's photos in the order the text places them: the gallery's order.
+  const photoIds = await usedPhotoIds(db, row)
   const [bylines, tags, photos, { analysis, problem }, buildSheet, setups] = await Promise.all([
     magazineBylines(db, [row.id]),
     magazineTags(db, [row.id]),
