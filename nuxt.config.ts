@@ -49,6 +49,20 @@ export default defineNuxtConfig({
   vite: { build: { sourcemap: false } },
   typescript: { strict: true },
   telemetry: false,
+  hooks: {
+    // nuxt-auth-utils' own session plugins fetch /api/_auth/session inside every server
+    // render (a second request per page, with its own session unsealing); the app reads
+    // the user from /api/auth/me (app/plugins/current-user.ts) and never uses them.
+    'app:resolve'(app) {
+      app.plugins = app.plugins.filter(plugin => !/nuxt-auth-utils\/dist\/runtime\/app\/plugins\/session\./.test(plugin.src))
+    },
+    // No OAuth or WebAuthn sign-in here: Nitro copies the runtime config and reads the
+    // environment for every key of it on each request, and those two were 300 of its lines.
+    'nitro:config'(config) {
+      delete config.runtimeConfig?.oauth
+      delete config.runtimeConfig?.webauthn
+    },
+  },
   eslint: { config: { stylistic: true } },
   tailwindcss: { cssPath: false },
 })

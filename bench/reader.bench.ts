@@ -9,6 +9,7 @@
 //   3. the same page through the nginx cache         >= 80 % of 1
 //   4. uncached story page (a signed-in reader: never cached), p95 at 10 concurrent < 80 ms
 //   5. first-load JS of the story page               < 120 KB gzip
+// `reader.bench.ts uncached` runs row 4 alone (no nginx), e.g. under a CPU profile.
 import { spawnSync } from 'node:child_process'
 import { chmodSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import os from 'node:os'
@@ -88,7 +89,21 @@ async function latency(url: string, headers: Record<string, string>, concurrency
   return { n: times.length, p50: at(0.5), p95: at(0.95), max: times[times.length - 1]! }
 }
 
+async function uncachedRow(storyUrl: string, cookie: string) {
+  const uncached = await latency(storyUrl, { cookie }, 10, SECONDS)
+  console.log(`4. uncached, 3 graphs, 10 concurrent: p50 ${uncached.p50.toFixed(1)} ms, p95 ${uncached.p95.toFixed(1)} ms, max ${uncached.max.toFixed(1)} ms (n = ${uncached.n}; target p95 < 80 ms)`)
+}
+
 const fixture = await readerFixture()
+if (process.argv[2] === 'uncached') {
+  try {
+    await uncachedRow(`${fixture.base}/stories/${fixture.slug}`, fixture.readerCookie)
+  }
+  finally {
+    await fixture.stop()
+  }
+  process.exit(0)
+}
 let nginx: ReturnType<typeof import('node:child_process').spawn> | undefined
 try {
   const storyUrl = `${fixture.base}/stories/${fixture.slug}`
@@ -120,8 +135,7 @@ try {
   console.log(`2. Node, page cache:        ${node.rps.toFixed(0)} req/s = ${(100 * node.rps / stat.rps).toFixed(1)} % of static (target >= 10 %)`)
   const cached = await rps(edgeUrl)
   console.log(`3. nginx cache before Node: ${cached.rps.toFixed(0)} req/s = ${(100 * cached.rps / stat.rps).toFixed(1)} % of static (target >= 80 %)`)
-  const uncached = await latency(storyUrl, { cookie: fixture.readerCookie }, 10, SECONDS)
-  console.log(`4. uncached, 3 graphs, 10 concurrent: p50 ${uncached.p50.toFixed(1)} ms, p95 ${uncached.p95.toFixed(1)} ms, max ${uncached.max.toFixed(1)} ms (n = ${uncached.n}; target p95 < 80 ms)`)
+  await uncachedRow(storyUrl, fixture.readerCookie)
   const js = await firstLoad(storyUrl)
   console.log(`5. first-load JS: ${js.files.length} files, ${(js.totalGzip / 1024).toFixed(1)} KB gzip (target < 120 KB)`)
 }

@@ -10,14 +10,16 @@ export const currentUserKey = () => 'current-user'
  * Registers the fetch of GET /api/auth/me. The current-user plugin calls it once
  * per app start (on the server that is once per request), so the entry lives for
  * the whole app and refreshNuxtData(currentUserKey()) always reaches it. Calling
- * useFetch again from every component would re-run the request during each
- * server render.
+ * it again from every component would re-run the request during each server
+ * render. On the server the render asks the services directly (RenderData).
  */
 export function fetchCurrentUser() {
-  return useFetch<MeResponse>('/api/auth/me', {
-    key: currentUserKey(),
-    dedupe: 'defer',
-  })
+  const render = import.meta.server ? useRequestEvent()?.context.renderData : undefined
+  return useAsyncData<MeResponse>(
+    currentUserKey(),
+    async () => (render ? { user: await render.currentUser() } : $fetch<MeResponse>('/api/auth/me')),
+    { dedupe: 'defer' },
+  )
 }
 
 export function useCurrentUser() {

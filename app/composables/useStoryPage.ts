@@ -11,12 +11,14 @@ export const storyApiPath = (slug: string, sub = '') => `/api/magazine/stories/$
 
 /** The published story (or the desk's preview of it) as the reader's page shows it. */
 export function useStoryPage(slug: MaybeRefOrGetter<string>) {
-  // Signed-in desk users may see an unpublished story: send their cookie during SSR.
+  // The server render reads it from the services with the request's user (RenderData);
+  // in the browser the cookie goes with the API call.
   // (Typed by hand: inferring the route type of a built path exhausts the compiler.)
-  const requestFetch = useRequestFetch() as (path: string) => Promise<unknown>
+  const render = import.meta.server ? useRequestEvent()?.context.renderData : undefined
+  const get = $fetch as (path: string) => Promise<unknown>
   return useAsyncData<MagazineStoryResponse>(
     () => storyPageKey(toValue(slug)),
-    () => requestFetch(storyApiPath(toValue(slug))) as Promise<MagazineStoryResponse>,
+    () => (render ? render.readerStory(toValue(slug)) : get(storyApiPath(toValue(slug))) as Promise<MagazineStoryResponse>),
   )
 }
 

@@ -15,9 +15,9 @@ export function toCurrentUser(row: UserRecord): CurrentUser {
  */
 export async function getCurrentUser(event: H3Event): Promise<CurrentUser | null> {
   if (event.context.currentUser !== undefined) return event.context.currentUser
-  const session = await getUserSession(event)
+  const session = await withKnownSession(event, () => getUserSession(event))
   let user: CurrentUser | null = null
-  if (session.user?.id) {
+  if (session?.user?.id) {
     const row = await useDb()<UserRecord>('users')
       .where({ id: session.user.id, session_version: session.user.sv, disabled: false })
       .first('id', 'email', 'display_name', 'role', 'disabled', 'session_version')

@@ -7,6 +7,7 @@ import { LineChart } from 'echarts/charts'
 import { AriaComponent, GridComponent, LegendComponent, MarkLineComponent } from 'echarts/components'
 import { SVGRenderer } from 'echarts/renderers'
 import type { PullChartOption } from '#shared/utils/chart-options'
+import { memoOn } from '#shared/utils/object-memo'
 
 echarts.use([LineChart, GridComponent, LegendComponent, MarkLineComponent, AriaComponent, SVGRenderer])
 
@@ -18,6 +19,12 @@ echarts.use([LineChart, GridComponent, LegendComponent, MarkLineComponent, AriaC
 export function renderGraphSvg(option: PullChartOption, size: { width: number, height: number }): string {
   // Drawing costs tens of ms per graph and the same graph is drawn on every
   // uncached render: keep recent drawings, keyed by exactly what they depend on.
+  // A kept option object (FigureGraph's memoOn) skips even building that key.
+  const sizeKey = `svg|${size.width}x${size.height}`
+  return memoOn(option, sizeKey, () => drawnByValue(option, size))
+}
+
+function drawnByValue(option: PullChartOption, size: { width: number, height: number }): string {
   const key = JSON.stringify([size.width, size.height, option])
   const hit = drawn.get(key)
   if (hit !== undefined) {

@@ -1,6 +1,7 @@
 // One story as a reader sees it: published only. A withdrawn story answers 410
 // (it was here and is gone on purpose); anything else unpublished is 404, except
 // for the desk (its bylines, editors and admins), who see it marked as a preview.
+import type { H3Event } from 'h3'
 import type { Knex } from 'knex'
 import type { z } from 'zod'
 import { ANALYSIS_UNITS } from '#shared/types/analysis'
@@ -12,6 +13,7 @@ import type { CurrentUser } from '#shared/types/users'
 import type { EngineFamily, PartType } from '#shared/types/catalog'
 import { rolesAtLeast } from '#shared/types/roles'
 import { withRoundedCurves } from '#shared/utils/curve-precision'
+import { deepFreeze } from '#shared/utils/deep-freeze'
 import { LruCache } from '#shared/utils/lru-cache'
 import type { BenchTestRecord } from './bench-access'
 
@@ -115,12 +117,23 @@ onStoryCacheDropped((slug) => {
   }
 })
 
+/** The story at this slug for this request's user, as GET /api/magazine/stories/<slug> answers. */
+export async function readerStoryFor(event: H3Event, slug: string): Promise<MagazineStoryResponse> {
+  const story = await findReaderStory(slug, await getCurrentUser(event))
+  readerCacheHeaders(event, story)
+  return readerView(story)
+}
+
+// The view exactly as JSON carries it (dates as strings), frozen once it is shared:
+// server renders use the kept object itself, so nothing may change it in place.
+const asJson = (view: MagazineStoryResponse): MagazineStoryResponse => JSON.parse(JSON.stringify(view))
+
 export async function readerView(story: ReaderStory, db: Knex = useDb()): Promise<MagazineStoryResponse> {
-  if (story.preview) return buildReaderView(story, db)
+  if (story.preview) return asJson(await buildReaderView(story, db))
   const key = `${story.row.id}:${story.row.version}:${new Date(story.row.updated_at).getTime()}`
   const kept = publishedViews.get(key)
   if (kept && Date.now() - kept.storedAt <= PAGE_CACHE_TTL_MS) return kept.view
-  const view = await buildReaderView(story, db)
+  const view = deepFreeze(asJson(await buildReaderView(story, db)))
   publishedViews.set(key, { slug: story.row.slug, storedAt: Date.now(), view })
   return view
 }
@@ -175,7 +188,7 @@ async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineSt
 }
 
 /** Desk previews are private to the person looking; published answers may be kept by caches. */
-export function readerCacheHeaders(event: Parameters<typeof setResponseHeader>[0], story: ReaderStory): void {
+export function readerCacheHeaders(event: H3Event, story: ReaderStory): void {
   if (story.preview) {
     setResponseHeader(event, 'Cache-Control', 'private, no-store')
     setResponseHeader(event, 'X-Robots-Tag', 'noindex, nofollow')

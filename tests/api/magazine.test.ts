@@ -181,7 +181,9 @@ describe('feeds', () => {
 describe('the page cache', () => {
   it('serves anonymous readers from the cache and drops it when the story changes', async () => {
     const url = `${new Client().base}/stories/${slugs.published}`
-    await fetch(url)
+    const first = await fetch(url)
+    // An anonymous reader is never handed a session: its cookie would bypass every cache.
+    expect(first.headers.get('set-cookie')).toBeNull()
     const hit = await fetch(url)
     expect(hit.headers.get('x-page-cache')).toBe('hit')
     expect(await hit.text()).toContain('data-testid="story-headline"')

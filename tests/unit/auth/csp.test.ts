@@ -16,6 +16,14 @@ describe('inline script hashes', () => {
     expect(inlineScriptBodies(html)).toEqual(['window.__NUXT__={};window.__NUXT__.config={public:{}}'])
   })
 
+  it('takes every script in order, upper-case tags and empty ones included, up to its own end tag', () => {
+    const page = `<SCRIPT>first()</SCRIPT><script type="application/json">{"s":"</scr"}</script>`
+      + `<script></script><script type="text/javascript">\nsecond()\n</script>`
+    expect(inlineScriptBodies(page)).toEqual(['first()', '\nsecond()\n'])
+    // An unterminated script is not one a browser would run as written: nothing after it.
+    expect(inlineScriptBodies('<script>a()</script><script>b()')).toEqual(['a()'])
+  })
+
   it('names each hash in script-src and forbids framing and plugins', () => {
     const hash = createHash('sha256').update('alert(1)').digest('base64')
     const csp = contentSecurityPolicy([hash])
