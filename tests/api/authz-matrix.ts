@@ -70,6 +70,9 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'POST /api/admin/photos/sweep': { expect: ADMIN, path: () => '/api/admin/photos/sweep', body: () => ({ graceSeconds: 86400 }) },
   'GET /api/admin/runtime': { expect: ADMIN, path: () => '/api/admin/runtime' },
   'POST /api/admin/runtime/reset': { expect: ADMIN, path: () => '/api/admin/runtime/reset' },
+  'GET /api/admin/settings': { expect: ADMIN, path: () => '/api/admin/settings' },
+  // Without a version the body is refused (400): the gate is proven, nothing changes.
+  'PATCH /api/admin/settings': { expect: ADMIN, path: () => '/api/admin/settings', body: () => ({}) },
 
   'POST /api/auth/login': { expect: PUBLIC, path: () => '/api/auth/login', body: () => ({}) },
   'POST /api/auth/logout': { expect: PUBLIC, path: () => '/api/auth/logout', last: true },

@@ -1,0 +1,5 @@
+// The magazine's settings as the admin page shows them.
+export default defineEventHandler(async (event) => {
+  await requireRole(event, 'admin')
+  return getSiteSettingsView()
+})

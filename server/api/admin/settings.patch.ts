@@ -1,0 +1,8 @@
+import { SiteSettingsPatchBody } from '#shared/types/site-settings'
+
+// Changes some of the magazine's settings; the version read guards against a colleague's change.
+export default defineEventHandler(async (event) => {
+  const admin = await requireRole(event, 'admin')
+  const body = await readValidatedBody(event, zodParser(SiteSettingsPatchBody))
+  return updateSiteSettings(admin.id, body)
+})
