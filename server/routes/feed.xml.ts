@@ -1,5 +1,8 @@
 // RSS 2.0 of the newest published stories.
 export default defineEventHandler(async (event) => {
-  setResponseHeader(event, 'content-type', 'application/rss+xml; charset=utf-8')
+  // application/xml rather than rss+xml: browsers show it (styled by /feed.css) instead of
+  // offering a download, and feed readers take either.
+  setResponseHeader(event, 'content-type', 'application/xml; charset=utf-8')
+  setResponseHeader(event, 'content-security-policy', FEED_CSP)
   return rssFeedXml(useAppConfig().magazine.name)
 })

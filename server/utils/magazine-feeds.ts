@@ -13,6 +13,14 @@ export function publicStoryUrl(slug: string): string {
   return `${appConfig().baseUrl}/stories/${encodeURIComponent(slug)}`
 }
 
+// A browser opening the feed shows it styled by /feed.css, with a few XHTML elements
+// (a namespace extension, which RSS 2.0 allows and feed readers skip) saying what the
+// page is and linking each story. XSLT would do the same but is deprecated in browsers.
+const XHTML = 'http://www.w3.org/1999/xhtml'
+
+/** The feed's own CSP: nothing runs, only its stylesheet loads. */
+export const FEED_CSP = `default-src 'none'; style-src 'self'; img-src 'self'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'`
+
 export async function rssFeedXml(magazineName: string): Promise<string> {
   const rows = await publicStories(useDb()).orderBy('published_at', 'desc').orderBy('id', 'desc').limit(FEED_LIMIT)
     .select('slug', 'headline', 'deck', 'published_at', 'updated_at') as FeedRow[]
@@ -24,13 +32,16 @@ export async function rssFeedXml(magazineName: string): Promise<string> {
     `      <guid isPermaLink="true">${escapeXml(publicStoryUrl(r.slug))}</guid>`,
     `      <description>${escapeXml(r.deck)}</description>`,
     `      <pubDate>${new Date(r.published_at).toUTCString()}</pubDate>`,
+    `      <h:p><h:a href="${escapeXml(publicStoryUrl(r.slug))}">Read the story</h:a></h:p>`,
     '    </item>',
   ].join('\n'))
   return [
     '<?xml version="1.0" encoding="UTF-8"?>',
-    '<rss version="2.0" xmlns:atom="http://www.w3.org/2005/Atom">',
+    '<?xml-stylesheet type="text/css" href="/feed.css"?>',
+    `<rss version="2.0" xmlns:atom="http://www.w3.org/2005/Atom" xmlns:h="${XHTML}">`,
     '  <channel>',
     `    <title>${escapeXml(magazineName)}</title>`,
+    `    <h:p class="feed-about">This is the RSS feed of ${escapeXml(magazineName)}: put its address, <h:code>${escapeXml(base)}/feed.xml</h:code>, into a feed reader to hear of every new test. <h:a href="${escapeXml(base)}/">Back to the stories</h:a></h:p>`,
     `    <link>${escapeXml(base)}/</link>`,
     `    <atom:link href="${escapeXml(base)}/feed.xml" rel="self" type="application/rss+xml"/>`,
     '    <description>Engine-dyno parts tests from the tech desk (a fictional magazine made up for this demo).</description>',
