@@ -8,7 +8,7 @@ import { EngineFamilySchema, PartTypeSchema } from '#shared/types/catalog-schema
 import { TagSchema, type StoryPhoto } from '#shared/types/stories'
 import type { MagazineHome, MagazinePage, MagazineStoryCard } from '#shared/types/magazine'
 import type { PhotoRecord } from './photo-access'
-import { fullTextTerms } from './magazine-search-terms'
+import { catchUpSearchIndex, searchHits } from './magazine-search'
 
 export const MAGAZINE_PAGE_SIZE = 12
 
@@ -152,9 +152,9 @@ export function storiesByTag(tag: string, page: number, db: Knex = useDb()): Pro
 }
 
 export async function searchStories(q: string, page: number, db: Knex = useDb()): Promise<MagazinePage> {
-  const terms = fullTextTerms(q)
-  if (!terms) return { stories: [], page, pageSize: MAGAZINE_PAGE_SIZE, total: 0, pages: 1 }
-  const match = 'MATCH (stories.headline, stories.deck, stories.body) AGAINST (? IN BOOLEAN MODE)'
-  return pageOf(db, publicStories(db).whereRaw(match, [terms]), page,
-    query => query.orderByRaw(`${match} DESC`, [terms]).orderBy('stories.published_at', 'desc').orderBy('stories.id', 'desc'))
+  const hits = searchHits(db, q)
+  if (!hits) return { stories: [], page, pageSize: MAGAZINE_PAGE_SIZE, total: 0, pages: 1 }
+  await catchUpSearchIndex(db)
+  return pageOf(db, publicStories(db).join(hits, 'hits.story_id', 'stories.id'), page,
+    query => query.orderBy('hits.score', 'desc').orderBy('stories.published_at', 'desc').orderBy('stories.id', 'desc'))
 }
