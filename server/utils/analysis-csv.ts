@@ -1,11 +1,15 @@
 // The results table as CSV, through shared/dyno's writer (RFC 4180 quoting, formula
-// injection guarded). Figures to one decimal, rounded half away from zero like the page.
+// injection guarded). Every figure is rounded as the results table on the page rounds
+// it (peaks and rpm whole, averages, gains, vacuum and spread to one decimal; half away
+// from zero, from unrounded values), and the header row says so (issue 15 item 8).
 import { reportFixed, writeCsv, type CsvCell } from '../../shared/dyno/index'
 import type { AnalysisGains, AnalysisResponse } from '../../shared/types/workspace'
 
 const num = (v: number | null | undefined, places = 1): CsvCell => (v === null || v === undefined || !Number.isFinite(v) ? '' : Number(reportFixed(v, places)))
 const rpms = (list: readonly number[] | undefined): CsvCell => (list ?? []).map(r => reportFixed(r, 0)).join(' / ')
 const flag = (v: boolean | null | undefined): CsvCell => (v === true ? 'within repeatability' : v === false ? 'beyond repeatability' : '')
+
+export const CSV_ROUNDING_NOTE = 'Values rounded as on the page (half away from zero)'
 
 export function analysisCsv(a: AnalysisResponse): string {
   const P = a.units.power
@@ -25,6 +29,7 @@ export function analysisCsv(a: AnalysisResponse): string {
       `Torque crossover vs ${vs} (rpm)`, `Idle vacuum change vs ${vs} (inHg)`, `Peak power gain vs ${vs}: repeatability`, `Average power gain vs ${vs}: repeatability`,
     )
   }
+  header.push(CSV_ROUNDING_NOTE)
   const gains = (g: AnalysisGains | null): CsvCell[] => [
     num(g?.peakPower), num(g?.peakPowerPct), num(g?.peakTorque), num(g?.peakTorquePct),
     num(g?.averagePower), num(g?.averageTorque),
@@ -33,7 +38,7 @@ export function analysisCsv(a: AnalysisResponse): string {
   ]
   const rows = a.table.rows.map(r => [
     r.label, a.standardLabel,
-    num(r.peakPower.value), num(r.peakPower.rpm, 0), num(r.peakTorque.value), num(r.peakTorque.rpm, 0),
+    num(r.peakPower.value, 0), num(r.peakPower.rpm, 0), num(r.peakTorque.value, 0), num(r.peakTorque.rpm, 0),
     num(r.averagePower), num(r.averageTorque),
     num(r.powerBand.fromRpm, 0), num(r.powerBand.toRpm, 0), num(r.idleVacuumInHg), num(r.spreadPct),
     ...gains(r.vsBaseline), ...gains(r.vsPrevious),

@@ -19,3 +19,8 @@ export function formatSigned(value: number | null | undefined, decimals = 1): st
 export function formatRpm(rpm: number | null | undefined): string {
   return formatReported(rpm, 0)
 }
+
+/** A number and its unit that never break apart on a narrow screen: "+13.4\u00a0lb-ft". */
+export function withUnitNbsp(number: string, unit: string): string {
+  return unit === '%' ? `${number}%` : `${number}\u00a0${unit}`
+}

@@ -18,6 +18,8 @@ const tag = `tag-${Math.random().toString(36).slice(2, 8)}`
 let bench: StoryBench
 let editor: Client
 const slugs = { published: '', draft: '', withdrawn: '' }
+// A story made of the words readers typed and found nothing with (issue 15 item 12).
+const numbers = { id: 0, slug: '', unique: `qorvex${Math.random().toString(36).slice(2, 8)}`, ranked: `plimbo${Math.random().toString(36).slice(2, 8)}` }
 
 async function publish(storyId: number) {
   expectOk(await transition(editor, storyId, 'submit'))
@@ -37,6 +39,19 @@ beforeAll(async () => {
   expectOk(await transition(editor, withdrawn.id, 'withdraw', { note: 'Numbers were wrong.' }))
   const draft = await createStory(editor, bench.benchTestId, { body: `${body}\nDraft copy.`, tags: [tag] })
   Object.assign(slugs, { published: published.slug, withdrawn: withdrawn.slug, draft: draft.slug })
+  const typed = await createStory(editor, bench.benchTestId, {
+    headline: `The 350 ${numbers.ranked} on a 5.7 and a 6.3`,
+    deck: `A ${numbers.unique} deck.`,
+    body: `${storyBody(bench)}\n\nPeak at 5,500 rpm; the Zündung curve and the rest.\n`,
+    engineFamily: 'pushrod-v8',
+    partType: 'camshaft',
+    tags: ['small-block', 'exhaust'],
+  })
+  await publish(typed.id)
+  Object.assign(numbers, { id: typed.id, slug: typed.slug })
+  // The other published story mentions the ranked word in its body only.
+  const other = expectOk(await editor.get(`/api/stories/${published.id}`)).story
+  expectOk(await editor.patch(`/api/stories/${published.id}`, { version: other.version, body: `${body}\nAlso ${numbers.ranked}.\n` }))
 }, 120_000)
 
 describe('who reaches a story', () => {
@@ -102,13 +117,15 @@ describe('download the data', () => {
       expect(res.headers.get('content-disposition')).toContain(`${slugs.published}-results.csv`)
       const [header, ...rows] = csvRows(await res.text())
       expect(header![2]).toBe(`Peak power (${analysis.units.power})`)
+      expect(header!.at(-1)).toBe('Values rounded as on the page (half away from zero)')
       expect(rows).toHaveLength(analysis.table.rows.length)
       analysis.table.rows.forEach((r: any, i: number) => {
         expect(rows[i]![0]).toBe(r.label)
         expect(rows[i]![1]).toBe(analysis.standardLabel)
-        expect(Number(rows[i]![2])).toBe(Number(reportFixed(r.peakPower.value, 1)))
+        // Rounded as on the page (issue 15 item 8): peaks whole, ties away from zero (brief).
+        expect(Number(rows[i]![2])).toBe(Number(reportFixed(r.peakPower.value, 0)))
         expect(Number(rows[i]![3])).toBe(Number(reportFixed(r.peakPower.rpm, 0)))
-        expect(Number(rows[i]![4])).toBe(Number(reportFixed(r.peakTorque.value, 1)))
+        expect(Number(rows[i]![4])).toBe(Number(reportFixed(r.peakTorque.value, 0)))
       })
     }
   })
@@ -151,6 +168,34 @@ describe('lists and search', () => {
     expect((await anon.get('/api/magazine/search?q=a')).status).toBe(400)
   })
 
+  it('finds what readers type: part type, engine family, tags, short words and numbers', async () => {
+    // Issue 15 item 12: each of these found nothing under FULLTEXT (short words, stop words, "5.7").
+    const anon = new Client()
+    const found = async (q: string) => slugsOf(expectOk(await anon.get(`/api/magazine/search?q=${encodeURIComponent(q)}`)))
+    for (const q of ['camshaft', 'exhaust', 'pushrod V8', '5.7', '6.3', '350', 'small-block', 'smallblock', 'and']) {
+      expect(await found(`${q} ${numbers.unique}`), q).toEqual([numbers.slug])
+      expect(await found(q), q).toContain(numbers.slug)
+    }
+    // The part type of the other published story (exhaust) finds it by its part type.
+    expect(await found('exhaust')).toContain(slugs.published)
+    // Every word is required: a word the story lacks leaves it out.
+    expect(await found(`${numbers.unique} 6.2`)).toEqual([])
+    expect(await found(`${numbers.unique} intake`)).toEqual([])
+    // Thousands separators and accents do not matter.
+    expect(await found(`${numbers.unique} 5500 rpm`)).toEqual([numbers.slug])
+    expect(await found(`${numbers.unique} zundung`)).toEqual([numbers.slug])
+  })
+
+  it('ranks a headline match above a body match and follows edits of a published story', async () => {
+    const anon = new Client()
+    const found = async (q: string) => slugsOf(expectOk(await anon.get(`/api/magazine/search?q=${encodeURIComponent(q)}`)))
+    expect((await found(numbers.ranked)).slice(0, 2)).toEqual([numbers.slug, slugs.published])
+    const story = expectOk(await editor.get(`/api/stories/${numbers.id}`)).story
+    expectOk(await editor.patch(`/api/stories/${numbers.id}`, { version: story.version, tags: ['renamed-tag', 'exhaust'] }))
+    expect(await found(`${numbers.unique} small-block`)).toEqual([])
+    expect(await found(`${numbers.unique} renamed`)).toEqual([numbers.slug])
+  })
+
   it('puts the newest published story on the home page', async () => {
     const home = expectOk(await new Client().get('/api/magazine/home'))
     const shown = [home.featured?.slug, ...home.latest.map((s: any) => s.slug)]
@@ -174,6 +219,30 @@ describe('feeds', () => {
         : [doc.urlset.url].flat().map((u: any) => u.loc)
       expect(links.some(l => l.endsWith(`/stories/${slugs.published}`)), path).toBe(true)
       expect(links.some(l => l.endsWith(`/stories/${slugs.draft}`) || l.endsWith(`/stories/${slugs.withdrawn}`)), path).toBe(false)
+    }
+  })
+
+  it('opens styled in a browser: a CSS stylesheet of the right type, allowed by the feed\'s own CSP', async () => {
+    const base = new Client().base
+    const res = await fetch(`${base}/feed.xml`)
+    const xml = await res.text()
+    expect(xml).toContain('<?xml-stylesheet type="text/css" href="/feed.css"?>')
+    const csp = res.headers.get('content-security-policy') ?? ''
+    expect(csp).toMatch(/default-src 'none'/)
+    expect(csp).toMatch(/style-src 'self'/)
+    // Feed readers skip the XHTML extension elements; a browser shows them as links.
+    const item = [new XMLParser().parse(xml).rss.channel.item].flat().find((i: any) => i.link.endsWith(`/stories/${slugs.published}`))
+    expect(item.title).toBeTruthy()
+    const css = await fetch(`${base}/feed.css`)
+    expect(css.status).toBe(200)
+    expect(css.headers.get('content-type')).toMatch(/^text\/css/)
+  })
+
+  it('is named in the head of the home page and the story page, with a visible link', async () => {
+    for (const path of ['/', `/stories/${slugs.published}`]) {
+      const html = await (await fetch(`${new Client().base}${path}`)).text()
+      expect(html, path).toMatch(/<link[^>]*rel="alternate"[^>]*type="application\/rss\+xml"[^>]*href="\/feed.xml"|<link[^>]*href="\/feed.xml"[^>]*rel="alternate"/)
+      expect(html, path).toMatch(/data-testid="feed-link"[^>]*>[\s\S]*?Follow by RSS/)
     }
   })
 })

@@ -156,7 +156,7 @@ describe('analysis', () => {
     expectOk(await writer.delete(`/api/bench-tests/${bt}/setups/${empty.id}`))
   })
 
-  it('exports the table as CSV, figures to one decimal, text guarded against formulas', async () => {
+  it('exports the table as CSV, figures rounded as on the page, text guarded against formulas', async () => {
     const res = await writer.get(`/api/bench-tests/${bt}/analysis/csv`)
     expect(res.status).toBe(200)
     expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
@@ -167,8 +167,10 @@ describe('analysis', () => {
     const table = expectOk(await analysis()).table
     const cells = lines[1]!.split(',')
     expect(cells[0]).toBe('Stock')
-    // Rounded half away from zero to one decimal (brief, "Numbers users trust")
-    expect(Number(cells[2])).toBe(reportRound(table.rows[0].peakPower.value, 1))
+    // Rounded as the page shows it: peaks whole, half away from zero (brief, "Numbers users trust");
+    // the header row says so in its last cell (issue 15 item 8).
+    expect(Number(cells[2])).toBe(reportRound(table.rows[0].peakPower.value, 0))
+    expect(lines[0]!.endsWith(',Values rounded as on the page (half away from zero)')).toBe(true)
     expect(lines[3]!.startsWith('\'=Big tubes,')).toBe(true)
   })
 })

@@ -346,10 +346,10 @@ describe('from the operator\'s upload link to the reader\'s download', () => {
       for (const [i, r] of body.entries()) {
         const want = peaks[i]!
         expect(r[col('Corrected to')]).toBe(correctionStandardInfo(STANDARD).label)
-        // Figures to one decimal, rounded half away from zero (brief), written as numbers.
-        expect(Number(r[col('Peak power (kW)')])).toBe(reportRound(hpToKw(want.power.value), 1))
+        // Figures rounded as on the page (peaks whole), half away from zero (brief), written as numbers.
+        expect(Number(r[col('Peak power (kW)')])).toBe(reportRound(hpToKw(want.power.value), 0))
         expect(Number(r[col('Peak power at (rpm)')])).toBe(reportRound(want.power.rpm, 0))
-        expect(Number(r[col('Peak torque (N-m)')])).toBe(reportRound(lbFtToNm(want.torque.value), 1))
+        expect(Number(r[col('Peak torque (N-m)')])).toBe(reportRound(lbFtToNm(want.torque.value), 0))
         expect(Number(r[col('Peak torque at (rpm)')])).toBe(reportRound(want.torque.rpm, 0))
       }
       // The headers' gain over the baseline, in kW, from the same mean curves.

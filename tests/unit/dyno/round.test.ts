@@ -18,6 +18,20 @@ describe('reportRound: nearest, ties away from zero (common practice), exact on 
     expect(reportRound(1.45, 1)).toBe(1.5)
     expect(reportRound(-1.005, 2)).toBe(-1.01)
   })
+  it('differences are rounded from the unrounded values at their decimal tie (issue 15 item 8)', () => {
+    // An idle vacuum of 19.15 inHg (shown 19.2) falling to 16.0: the change is -3.15, reported -3.2
+    // (common practice: ties away from zero). In doubles it is -3.1499999999999986.
+    expect(16.0 - 19.15).toBeGreaterThan(-3.15)
+    expect(reportRound(16.0 - 19.15, 1)).toBe(-3.2)
+    expect(reportFixed(19.15 - 16.0, 1)).toBe('3.2')
+    // Near-equal operands make the noise larger than the difference's own last digit.
+    expect(500.25 - 500.1).toBeLessThan(0.15)
+    expect(reportRound(500.25 - 500.1, 1)).toBe(0.2)
+    expect(reportRound(512.35 - 487.5, 1)).toBe(24.9)
+    // Real non-ties far from the snap are untouched.
+    expect(reportRound(3.1449, 2)).toBe(3.14)
+    expect(reportRound(-3.1449, 1)).toBe(-3.1)
+  })
   it('non-ties go to the nearest', () => {
     expect(reportRound(2.4999)).toBe(2)
     expect(reportRound(2.5001)).toBe(3)
