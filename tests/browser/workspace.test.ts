@@ -148,6 +148,43 @@ describe('a writer takes a bench test from nothing to compared curves', () => {
       await expect.poll(() => cell.textContent(), { timeout: 15_000 }).toContain(want)
     }
   })
+
+  it('keeps its choices in the URL: a shared link opens the same view, and back leaves the page', async () => {
+    // Issue 15 item 15: setups shown, baseline, standard and units in the query, written with replace.
+    await page.getByTestId('analysis-standard').selectOption('din-70020')
+    await page.getByTestId('analysis-units-kw-nm').check()
+    await page.getByTestId(`analysis-setup-${setupIds[1]}`).uncheck()
+    await expect.poll(() => new URL(page.url()).searchParams.toString())
+      .toBe(new URLSearchParams({ setups: String(setupIds[0]), standard: 'din-70020', units: 'kw-nm' }).toString())
+    await page.locator(`[data-testid="analysis-chart"][data-setup-ids="${setupIds[0]}"]`).waitFor({ timeout: 20_000 })
+    const shared = page.url()
+
+    const other = await openBrowser({ width: 1280, height: 900 })
+    try {
+      await signInThroughPage(other.page, 'writer@example.com', DEMO_PASSWORD)
+      await other.page.goto(shared)
+      await other.page.locator(`[data-testid="analysis-chart"][data-setup-ids="${setupIds[0]}"]`).waitFor({ timeout: 20_000 })
+      expect(await other.page.getByTestId('analysis-standard').inputValue()).toBe('din-70020')
+      expect(await other.page.getByTestId('analysis-units-kw-nm').isChecked()).toBe(true)
+      expect(await other.page.getByTestId(`analysis-setup-${setupIds[1]}`).isChecked()).toBe(false)
+      await other.page.getByTestId(`analysis-setup-${setupIds[1]}`).check()
+      await expect.poll(() => new URL(other.page.url()).searchParams.has('setups')).toBe(false)
+      // Every change replaced the entry: back goes to the page before, not to an earlier view.
+      await other.page.goBack()
+      await expect.poll(() => other.page.url()).not.toContain('/analysis')
+    }
+    finally {
+      await other.close()
+    }
+
+    // Coming back through the bench test's tabs (no query) shows the view left behind.
+    await page.getByTestId('bench-test-nav-pulls').click()
+    await page.waitForURL(/\/pulls$/)
+    await page.getByTestId('bench-test-nav-analysis').click()
+    await expect.poll(() => new URL(page.url()).searchParams.get('standard')).toBe('din-70020')
+    await page.getByTestId(`analysis-setup-${setupIds[1]}`).check()
+    await page.getByTestId('analysis-units-hp-lbft').check()
+  })
 })
 
 function hexToRgb(hex: string): string {
