@@ -5,6 +5,8 @@ import { createHash, randomBytes } from 'node:crypto'
 import type { Knex } from 'knex'
 import { OPERATOR_LINK_LIMITS, PULL_LIMITS, type CreatedOperatorLink, type CreateOperatorLinkInput, type OperatorLink, type OperatorLinkState, type UploadLinkInfo, type UploadReceipt } from '../../shared/types/workspace'
 import { checkPullFile, decodeUploadedBytes } from './pull-check'
+import { fileArrivalIntoPlan } from './dyno-day-filing'
+import { bumpLiveMark } from './live-marks'
 import { httpError, missing } from './workspace-http'
 import { asBool, isoTime, isoTimeRequired } from './workspace-rows'
 
@@ -150,8 +152,9 @@ export async function receiveUploads(db: Knex, token: string, files: readonly Up
     }
     const received: UploadReceipt['received'] = []
     for (const f of files) {
-      const checked = checkPullFile({ name: f.name, text: decodeUploadedBytes(f.data), bytes: f.data.byteLength })
-      await trx('inbox_files').insert({
+      const text = decodeUploadedBytes(f.data)
+      const checked = checkPullFile({ name: f.name, text, bytes: f.data.byteLength })
+      const [inboxId] = await trx('inbox_files').insert({
         bench_test_id: link.bench_test_id,
         operator_link_id: link.id,
         file_name: f.name,
@@ -160,9 +163,17 @@ export async function receiveUploads(db: Knex, token: string, files: readonly Up
         preview: JSON.stringify(checked.preview),
         ok: checked.preview.ok,
       })
-      received.push({ name: f.name, sizeBytes: f.data.byteLength, ok: checked.preview.ok, problemCount: checked.preview.problems.length })
+      // During a dyno day the file goes straight to the plan's current setup (server/utils/dyno-day.ts).
+      const filedTo = checked.preview.ok ? await fileArrivalIntoPlan(trx, link.bench_test_id, link.id, Number(inboxId), { name: f.name, text, bytes: f.data.byteLength, weather: checked.preview.weather }) : null
+      received.push({ name: f.name, sizeBytes: f.data.byteLength, ok: checked.preview.ok, problemCount: checked.preview.problems.length, ...(filedTo ? { filedTo } : {}) })
     }
     await trx('operator_links').where({ id: link.id }).update({ files_received: trx.raw('files_received + ?', [files.length]) })
+    await bumpLiveMark(trx, link.bench_test_id)
     return { received, filesLeft: link.max_files - link.files_received - files.length }
   })
+}
+
+/** The bench test behind a usable link, for the operator's view of the plan. */
+export async function linkBenchTestId(db: Db, token: string): Promise<number> {
+  return (await usableLink(db, token)).bench_test_id
 }

@@ -7,6 +7,7 @@ import type { ImportProblem, ImportRefusedData } from '../../shared/types/worksp
 import { capProblems, checkPullFile, weatherProblems, type CheckedPullFile } from './pull-check'
 import { encodePoints } from './pull-points'
 import { httpError } from './workspace-http'
+import { bumpLiveMark } from './live-marks'
 
 export interface PullToImport {
   name: string
@@ -96,6 +97,8 @@ export async function insertCheckedPulls(trx: Knex.Transaction, benchTestId: num
     })
     ids.push(Number(id))
   }
+  // The dyno day view follows this counter (server/utils/live-marks.ts).
+  if (ids.length) await bumpLiveMark(trx, benchTestId)
   return ids
 }
 

@@ -6,6 +6,7 @@ import { REPEATABILITY_PCT, assertWeather, type CorrectionStandard, type PowerUn
 import type { PullDetail, PullList, PullSummary, SetupRepeatability, UpdatePullInput } from '../../shared/types/workspace'
 import { loadGridPoints, pullFactor, scalePoints, setupCurve, weatherOf, loadPullMeta } from './analysis'
 import { decodePoints } from './pull-points'
+import { bumpLiveMark } from './live-marks'
 import { httpError, invalidField, missing, staleVersion } from './workspace-http'
 import { asBool, isoTimeRequired, parseJsonColumn } from './workspace-rows'
 
@@ -177,7 +178,11 @@ export async function updatePull(db: Knex, benchTestId: number, pullId: number, 
     if (!target) throw httpError(409, `Setup ${input.setupId} is not a setup of this bench test (or it was deleted).`, { issues: [{ path: 'setupId', message: 'Not a setup of this bench test' }] })
     patch.setup_id = input.setupId
   }
-  const count = await db('pulls').where({ id: pullId, bench_test_id: benchTestId, version: input.version }).update({ ...patch, version: db.raw('version + 1') })
+  const count = await db.transaction(async (trx) => {
+    const n = await trx('pulls').where({ id: pullId, bench_test_id: benchTestId, version: input.version }).update({ ...patch, version: trx.raw('version + 1') })
+    if (n) await bumpLiveMark(trx, benchTestId)
+    return n
+  })
   if (!count) staleVersion(await getPullSummary(db, benchTestId, pullId), 'pull')
   return getPullSummary(db, benchTestId, pullId)
 }

@@ -546,7 +546,8 @@ export interface UploadLinkInfo {
 }
 
 export interface UploadReceipt {
-  received: { name: string, sizeBytes: number, ok: boolean, problemCount: number }[]
+  /** filedTo: the setup the file became a pull of, during a dyno day (else it waits in the inbox). */
+  received: { name: string, sizeBytes: number, ok: boolean, problemCount: number, filedTo?: string }[]
   filesLeft: number
 }
 

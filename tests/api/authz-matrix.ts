@@ -90,6 +90,13 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'PATCH /api/bench-tests/:id': { expect: OWNER, path: bt, body: () => ({}) },
   'GET /api/bench-tests/:id/analysis/csv': { expect: OWNER, path: f => `${bt(f)}/analysis/csv` },
   'GET /api/bench-tests/:id/analysis': { expect: OWNER, path: f => `${bt(f)}/analysis` },
+  // Asked as JSON, the event stream answers 406 after the gate (it never streams to this test).
+  'GET /api/bench-tests/:id/day/events': { expect: OWNER, path: f => `${bt(f)}/day/events` },
+  'GET /api/bench-tests/:id/day': { expect: OWNER, path: f => `${bt(f)}/day` },
+  'POST /api/bench-tests/:id/plan/copy': { expect: OWNER, path: f => `${bt(f)}/plan/copy`, body: () => ({}) },
+  'POST /api/bench-tests/:id/plan/day': { expect: OWNER, path: f => `${bt(f)}/plan/day`, body: () => ({}) },
+  'GET /api/bench-tests/:id/plan': { expect: OWNER, path: f => `${bt(f)}/plan` },
+  'PUT /api/bench-tests/:id/plan': { expect: OWNER, path: f => `${bt(f)}/plan`, body: () => ({}) },
   'PUT /api/bench-tests/:id/build-sheet': { expect: OWNER, path: f => `${bt(f)}/build-sheet`, body: () => ({}) },
   'POST /api/bench-tests/:id/inbox/:fileId/dismiss': { expect: OWNER, path: f => `${bt(f)}/inbox/${f.inboxFileId}/dismiss`, freshPath: async (n, f) => `${bt(f)}/inbox/${await n.inboxFileId()}/dismiss` },
   'POST /api/bench-tests/:id/inbox/:fileId/preview': { expect: OWNER, path: f => `${bt(f)}/inbox/${f.inboxFileId}/preview` },
@@ -168,6 +175,7 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'POST /api/stories/:id/transitions': { expect: OWNER, path: f => `${st(f)}/transitions`, body: () => ({ action: 'submit', version: 999_999 }) },
 
   'GET /api/upload/:token': { expect: PUBLIC, path: f => `/api/upload/${f.uploadToken}` },
+  'GET /api/upload/:token/plan': { expect: PUBLIC, path: f => `/api/upload/${f.uploadToken}/plan` },
   'POST /api/upload/:token': { expect: PUBLIC, path: f => `/api/upload/${f.uploadToken}`, body: () => ({}) },
 
   'PATCH /api/users/:id': { expect: ADMIN, path: f => `/api/users/${f.spareUserId}`, body: () => ({}) },
