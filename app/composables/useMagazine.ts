@@ -1,4 +1,5 @@
 import type { MagazineHome, MagazinePage } from '#shared/types/magazine'
+import { formatTime } from '#shared/utils/time-text'
 
 export const magazineHomeKey = () => 'magazine:home'
 export const magazineListKey = (path: string, page: number) => `magazine:list:${path}:${page}`
@@ -25,12 +26,7 @@ export function usePageNumber() {
   })
 }
 
-// One locale and zone so the server render and the browser print the same date.
-const PUBLISHED = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })
-
-/** "14 May 2026" */
-export function formatPublished(iso: string | null): string {
-  if (!iso) return ''
-  const date = new Date(iso)
-  return Number.isNaN(date.getTime()) ? iso : PUBLISHED.format(date)
+/** "14 May 2026", the day in the magazine's time zone (the shared time text). */
+export function formatPublished(iso: string | null, timeZone: string): string {
+  return iso ? formatTime(iso, timeZone, { dateOnly: true }) : ''
 }

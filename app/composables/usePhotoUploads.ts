@@ -10,6 +10,8 @@ export interface PhotoUploadItem {
   progress: number
   state: PhotoUploadState
   message: string
+  /** The stored photo, so the list can follow its web sizes being made. */
+  photoId: number | null
 }
 
 const AT_ONCE = 2
@@ -66,6 +68,7 @@ export function usePhotoUploads(benchTestId: MaybeRefOrGetter<number>, onStored:
     if (answer.status === 201 || answer.status === 200) {
       item.progress = 100
       item.state = answer.body.duplicate ? 'duplicate' : 'stored'
+      item.photoId = answer.body.photo?.id ?? null
       item.message = answer.body.duplicate ? 'Already in this bench test: the photo there is kept.' : 'Stored. The web sizes are being made.'
       onStored()
     }
@@ -77,7 +80,7 @@ export function usePhotoUploads(benchTestId: MaybeRefOrGetter<number>, onStored:
 
   function add(files: Iterable<File>) {
     for (const file of files) {
-      const item = reactive<PhotoUploadItem>({ key: nextKey++, name: file.name, size: file.size, progress: 0, state: 'waiting', message: '' })
+      const item = reactive<PhotoUploadItem>({ key: nextKey++, name: file.name, size: file.size, progress: 0, state: 'waiting', message: '', photoId: null })
       items.value.push(item)
       if (file.size > PHOTO_MAX_BYTES) {
         item.state = 'refused'

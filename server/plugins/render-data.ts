@@ -13,6 +13,7 @@ export default defineNitroPlugin((nitroApp) => {
         if (!params.success) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'No such story.' })
         return readerStoryFor(event, params.data.slug)
       },
+      siteTimeZone: async () => (await getSiteSettings()).timeZone,
     }
   })
 })

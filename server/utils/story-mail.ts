@@ -4,6 +4,7 @@
 import type { Knex } from 'knex'
 import { STORY_PATHS } from '#shared/types/stories'
 import { storyStateLabel, type StoryMailTo, type StoryState } from '#shared/types/story-workflow'
+import { formatTime } from '#shared/utils/time-text'
 
 interface Recipient { id: number, email: string }
 
@@ -42,12 +43,14 @@ function storyLink(storyId: number, forEditors: boolean) {
   return { href: `${appConfig().baseUrl}${path}`, label: 'Open the story' }
 }
 
-function utcText(iso: string): string {
-  return `${iso.slice(0, 16).replace('T', ' ')} UTC`
+/** A published story is read where readers read it. */
+function publicLink(slug: string) {
+  return { href: `${appConfig().baseUrl}${STORY_PATHS.public(slug)}`, label: 'Read the published story' }
 }
 
 export interface StateMail {
   storyId: number
+  slug: string
   headline: string
   subject: string
   to: StoryMailTo
@@ -61,13 +64,15 @@ export interface StateMail {
 export async function mailStateChange(trx: Knex.Transaction, m: StateMail): Promise<number> {
   const people = await recipients(trx, m.to, m.storyId, m.actor?.id ?? null)
   const who = m.actor ? m.actor.name : 'The publishing schedule'
+  // The magazine's clock; a recipient's own zone is not known to the server.
+  const zone = (await getSiteSettings()).timeZone
   const paragraphs = [
     `${who} moved "${m.headline}" from ${storyStateLabel(m.from)} to ${storyStateLabel(m.toState)}.`,
-    ...(m.scheduledAt && m.toState === 'scheduled' ? [`It goes live at ${utcText(m.scheduledAt)}.`] : []),
+    ...(m.scheduledAt && m.toState === 'scheduled' ? [`It goes live at ${formatTime(m.scheduledAt, zone)}.`] : []),
     ...(m.note ? [`Note: ${m.note}`] : []),
   ]
   for (const person of people) {
-    await enqueueMail(trx, { to: person.email, subject: `${m.subject}: ${m.headline}`, paragraphs, link: storyLink(m.storyId, m.to === 'editors') })
+    await enqueueMail(trx, { to: person.email, subject: `${m.subject}: ${m.headline}`, paragraphs, link: m.toState === 'published' ? publicLink(m.slug) : storyLink(m.storyId, m.to === 'editors') })
   }
   return people.length
 }

@@ -119,6 +119,7 @@ export async function applyMove(trx: Knex.Transaction, row: StoryRow, move: Appl
   await writeRevision(trx, after, 'state', move.actor?.id ?? null, `${storyStateLabel(row.state)} to ${storyStateLabel(to)}`)
   await mailStateChange(trx, {
     storyId: row.id,
+    slug: row.slug,
     headline: row.headline,
     subject: move.rule.mailSubject,
     to: move.rule.mailTo,

@@ -21,6 +21,7 @@ function toUserRow(row: UserDbRow): UserRow {
     displayName: row.display_name,
     role: row.role,
     disabled: Boolean(row.disabled),
+    invited: !row.password_hash,
     createdAt: new Date(row.created_at).toISOString(),
   }
 }

@@ -11,6 +11,8 @@ export interface RenderData {
   currentUser: () => Promise<CurrentUser | null>
   /** GET /api/magazine/stories/<slug>. */
   readerStory: (slug: string) => Promise<MagazineStoryResponse>
+  /** The site setting timeZone (every time on the page is said in it). */
+  siteTimeZone: () => Promise<string>
 }
 
 declare module 'h3' {

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { DEFAULT_TIME_ZONE } from '../utils/time-text'
 
 /** True when the runtime's Intl knows the zone (IANA names such as "America/Chicago", or "UTC"). */
 export function isKnownTimeZone(zone: string): boolean {
@@ -31,7 +32,7 @@ export type SiteSettings = z.infer<typeof SiteSettingsSchema>
 export type SiteSettingKey = keyof SiteSettings
 
 export const DEFAULT_SITE_SETTINGS: SiteSettings = Object.freeze({
-  timeZone: 'America/Chicago',
+  timeZone: DEFAULT_TIME_ZONE,
   printColumnsMm: Object.freeze({ one: 55, two: 115, three: 175 }),
 }) as SiteSettings
 

@@ -38,6 +38,8 @@ export const PREVIEW_LINK_LIMITS = { minHours: 1, maxHours: 30 * 24, defaultHour
 export const STORY_PATHS = {
   editor: (storyId: number) => `/stories/${storyId}/edit`,
   deskStory: (storyId: number) => `/desk/${storyId}`,
+  /** The reader's page of a published story. */
+  public: (slug: string) => `/stories/${encodeURIComponent(slug)}`,
   desk: () => '/desk',
   preview: (token: string) => `/preview/${token}`,
 } as const

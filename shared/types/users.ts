@@ -14,6 +14,8 @@ export interface CurrentUser {
 /** A row of the admin's user list (GET /api/users). */
 export interface UserRow extends CurrentUser {
   disabled: boolean
+  /** Invited and has not chosen a password yet: cannot sign in until they do. */
+  invited: boolean
   createdAt: string
 }
 

@@ -2,8 +2,10 @@
 // zone and in the reader's. The schedule form takes a wall-clock time in either
 // zone and turns it into the UTC instant the server wants. Pure (Intl only).
 
-/** The desk's clock: scheduled times are planned in it. */
-export const SITE_TIME_ZONE = 'America/Chicago'
+import { DEFAULT_TIME_ZONE, formatTime } from './time-text'
+
+/** The default desk clock; the magazine's own is the site setting timeZone (useSiteTimeZone, getSiteSettings). */
+export const SITE_TIME_ZONE = DEFAULT_TIME_ZONE
 
 const PARTS_CACHE = new Map<string, Intl.DateTimeFormat>()
 
@@ -72,19 +74,9 @@ export function toZonedInput(iso: string, timeZone: string, withSeconds = false)
   return withSeconds ? `${base}:${pad(w.second)}` : base
 }
 
-const DISPLAY_CACHE = new Map<string, Intl.DateTimeFormat>()
-
-/** "14 May 2026, 09:00 CDT": one fixed locale, so the server render and the browser agree. */
+/** "14 May 2026, 09:00 CDT": the shared time text (shared/utils/time-text.ts). */
 export function formatInZone(iso: string, timeZone: string, withSeconds = false): string {
-  const date = new Date(iso)
-  if (Number.isNaN(date.getTime())) return iso
-  const key = `${timeZone}|${withSeconds}`
-  let f = DISPLAY_CACHE.get(key)
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit', ...(withSeconds ? { second: '2-digit' } : {}), hourCycle: 'h23', timeZoneName: 'short' })
-    DISPLAY_CACHE.set(key, f)
-  }
-  return f.format(date)
+  return formatTime(iso, timeZone, { seconds: withSeconds })
 }
 
 /** "3 h 20 min", "2 days": how long a story has waited. */

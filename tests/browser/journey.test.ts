@@ -17,6 +17,7 @@ import {
 } from '#shared/dyno'
 import { STORY_PATHS } from '#shared/types/stories'
 import { SITE_TIME_ZONE, toZonedInput } from '#shared/utils/story-time'
+import { formatTime } from '#shared/utils/time-text'
 import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { BASE_URL, DEMO_PASSWORD } from '../support/http'
 import { caughtMail, waitForMail } from '../support/mail'
@@ -371,10 +372,13 @@ describe('from the operator\'s upload link to the reader\'s download', () => {
     const approved = await waitForMail(writerEmail, subject('Story approved'), 30_000)
     expect(approved.text).toContain(`Note: ${APPROVAL}`)
     const scheduled = await waitForMail(writerEmail, subject('Story scheduled'), 30_000)
-    expect(scheduled.text).toContain(`It goes live at ${scheduledAt.slice(0, 16).replace('T', ' ')} UTC.`)
+    expect(scheduled.text).toContain(`It goes live at ${formatTime(scheduledAt, SITE_TIME_ZONE)}.`)
     const published = await waitForMail(writerEmail, subject('Story published'), 30_000)
     expect(published.text).toContain('The publishing schedule moved')
-    expect(published.text).toContain(STORY_PATHS.editor(storyId))
+    // The public page, not the editor (issue 15 item 10).
+    expect(published.text).toContain(`Read the published story: `)
+    expect(published.text).toContain(STORY_PATHS.public(slug))
+    expect(published.text).not.toContain(STORY_PATHS.editor(storyId))
 
     // Nobody hears of what they did themselves, and the other side's mails stay theirs.
     const about = caughtMail().filter(m => m.subject.endsWith(HEADLINE))

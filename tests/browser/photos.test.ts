@@ -72,6 +72,9 @@ describe('photo gallery in the browser', () => {
     const cards = page.getByTestId('photo-card')
     await expect.poll(() => cards.count()).toBe(2)
     await expect.poll(() => page.locator('[data-testid="photo-card"][data-status="ready"]').count(), { timeout: 60_000 }).toBe(2)
+    // The upload list follows as well, instead of saying "being made" for ever (issue 15 item 7).
+    await expect.poll(() => page.locator('[data-testid="photo-upload-row"][data-sizes="ready"]').count(), { timeout: 10_000 }).toBe(2)
+    expect(await page.getByTestId('photo-upload-message').first().textContent()).toContain('web sizes are ready')
     const first = cards.first()
     const firstId = Number(await first.getAttribute('data-photo-id'))
     const srcset = await first.getByTestId('photo-image').getAttribute('srcset')
