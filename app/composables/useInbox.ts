@@ -1,11 +1,13 @@
 import type { AssignInboxInput, InboxFile, InboxState, PullFilePreview, PullSummary } from '#shared/types/workspace'
 import type { ColumnRole } from '#shared/dyno'
+import type { ProposalSource } from '#shared/utils/setup-proposal'
 import type { WeatherDraft } from './usePullImport'
 
 /** What the writer has chosen for one waiting file before assigning it. */
 export interface InboxDraft {
   selected: boolean
   setupId: number | null
+  setupSource: ProposalSource | null
   weather: WeatherDraft
   dynoCorrected: boolean
   mapping: Record<string, ColumnRole>

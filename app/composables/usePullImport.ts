@@ -1,3 +1,4 @@
+import { proposeSetups, type ProposalSource, type SetupForProposal } from '#shared/utils/setup-proposal'
 import { parsePullCsv, type ColumnRole, type Problem } from '#shared/dyno'
 import {
   CommitPullsBody, PULL_LIMITS,
@@ -33,6 +34,8 @@ export interface ImportEntry {
   preview: PullFilePreview | null
   mapping: Record<string, ColumnRole>
   setupId: number | null
+  /** Where a proposed setup came from; null once chosen by hand or when nothing was proposed. */
+  setupSource: ProposalSource | null
   weather: WeatherDraft
   dynoCorrected: boolean
   /** A reason the file cannot go further (unreadable, too large, the check failed to run). */
@@ -73,7 +76,13 @@ function splitIssues(issues: { path: string, message: string }[], count: number)
   return { perFile, general }
 }
 
-export function usePullImport(benchTestId: MaybeRefOrGetter<number>, defaultSetupId: MaybeRefOrGetter<number | null>) {
+/** Files without a setup, named: nothing is put in a setup the writer did not choose or accept. */
+export function missingSetupText(names: readonly string[]): string | null {
+  if (!names.length) return null
+  return `Choose a setup for ${names.join(', ')}: no pull goes into a setup without your choice. Nothing was saved.`
+}
+
+export function usePullImport(benchTestId: MaybeRefOrGetter<number>, setups: MaybeRefOrGetter<readonly SetupForProposal[]>) {
   const entries = ref<ImportEntry[]>([])
   const saving = ref(false)
   const saveFraction = ref(0)
@@ -126,7 +135,8 @@ export function usePullImport(benchTestId: MaybeRefOrGetter<number>, defaultSetu
       batchError.value = `One batch takes up to ${PULL_LIMITS.maxFilesPerBatch} files; ${files.length - Math.max(room, 0)} were left out. Save these first, then add the rest.`
     }
     const taken = files.slice(0, Math.max(room, 0))
-    await Promise.all(taken.map(async (file) => {
+    const proposals = proposeSetups(taken.map(f => f.name), toValue(setups))
+    await Promise.all(taken.map(async (file, index) => {
       const entry: ImportEntry = {
         key: nextKey(),
         name: file.name,
@@ -138,7 +148,8 @@ export function usePullImport(benchTestId: MaybeRefOrGetter<number>, defaultSetu
         local: null,
         preview: null,
         mapping: {},
-        setupId: toValue(defaultSetupId),
+        setupId: proposals[index]?.setupId ?? null,
+        setupSource: proposals[index]?.source ?? null,
         weather: { baroInHg: '', airTempF: '', humidityPct: '' },
         dynoCorrected: false,
         error: null,
@@ -208,6 +219,7 @@ export function usePullImport(benchTestId: MaybeRefOrGetter<number>, defaultSetu
     batchError.value = null
     batchIssues.value = []
     const payload = body()
+    batchError.value = missingSetupText(entries.value.filter(e => e.setupId === null).map(e => e.name))
     const parsed = CommitPullsBody.safeParse(payload)
     if (!parsed.success) {
       showIssues(parsed.error.issues.map(i => ({ path: i.path.map(String).join('.'), message: i.message })))

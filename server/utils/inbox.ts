@@ -97,3 +97,12 @@ export async function dismissInboxFile(db: Knex, userId: number, benchTestId: nu
   await db('inbox_files').where({ id: fileId, state: 'waiting' }).update({ state: 'dismissed', handled_by: userId, handled_at: db.raw('NOW(3)') })
   return inboxFile(db, benchTestId, fileId)
 }
+
+/** File names of some inbox files of this bench test, in the order asked (for messages); unknown ids give undefined. */
+export async function inboxFileNames(benchTestId: number, ids: readonly unknown[]): Promise<(string | undefined)[]> {
+  const wanted = ids.filter((id): id is number => Number.isInteger(id) && (id as number) > 0)
+  if (!wanted.length) return ids.map(() => undefined)
+  const rows = await useDb()('inbox_files').where('bench_test_id', benchTestId).whereIn('id', wanted).select('id', 'file_name') as { id: number, file_name: string }[]
+  const byId = new Map(rows.map(r => [r.id, r.file_name]))
+  return ids.map(id => (typeof id === 'number' ? byId.get(id) : undefined))
+}

@@ -12,6 +12,7 @@
 // normalised to lb-ft, hp and inHg. Every problem names the file's 1-based line.
 // papaparse does the CSV level (quotes, line ends); this file does the meaning.
 
+import { DISAGREEMENT_CODE, groupRepeatedProblems } from './problems'
 import Papa from 'papaparse'
 import type { PowerUnit, Problem, PullPoint, TorqueUnit, VacuumUnit, Weather } from './types'
 import { kPaToInHg, kwToHp, mbarToInHg, nmToLbFt, cToF, psToHp, powerHp, torqueLbFt } from './units'
@@ -219,7 +220,8 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
       decimalComma: false,
       order: 'ascending',
       ...partial,
-      problems,
+      // One summary per kind of warning repeated on many lines, the lines on demand.
+      problems: groupRepeatedProblems(problems),
       ok: !problems.some(p => p.severity === 'error'),
     }
     if (Object.keys(weather).length > 0) out.weather = weather
@@ -417,6 +419,9 @@ export function parsePullCsv(text: string, opts: ParseOptions = {}): ParsedPull 
           severity: 'warning',
           line: rowLine,
           message: `torque and power disagree by ${Number.isFinite(diffPct) ? diffPct.toFixed(1) : 'more than 100'} % at ${rpm} rpm (one column may have been corrected and the other not)`,
+          code: DISAGREEMENT_CODE,
+          value: Number.isFinite(diffPct) ? diffPct : 100,
+          rpm,
         })
       }
     }

@@ -25,7 +25,17 @@ export type Problem = {
   /** header of the column, as written in the file */
   column?: string
   message: string
+  /** The kind of problem, where lines of one kind are summed up together. */
+  code?: string
+  /** The line's own figure for the summary (for a disagreement: percent). */
+  value?: number
+  rpm?: number
+  /** Set on a summary of one kind of problem repeated on many lines; `detail` lists them (capped). */
+  group?: ProblemGroup
+  detail?: Problem[]
 }
+
+export type ProblemGroup = { count: number, firstLine: number, lastLine: number, fromRpm?: number, toRpm?: number, typicalValue?: number }
 
 export type AtRpm = { value: number, rpm: number }
 

@@ -461,7 +461,7 @@ export type PreviewPullsInput = z.infer<typeof PreviewPullsBody>
 
 /** Where a file goes and the weather it was pulled in; weather may be null only when the dyno already corrected it. */
 export const PullAssignment = z.object({
-  setupId: z.number({ error: 'Choose a setup' }).int().positive(),
+  setupId: z.number({ error: 'Choose the setup this pull was made with (none is assumed)' }).int().positive(),
   weather: WeatherSchema.nullable(),
   dynoCorrected: z.boolean().optional(),
 })
