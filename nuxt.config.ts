@@ -39,6 +39,12 @@ export default defineNuxtConfig({
     // Photos are sized in worker threads by server/workers/photo-worker.mjs, which
     // the bundle never imports: ship its packages and copy it beside the server.
     externals: { traceInclude: [fileURLToPath(new URL('./server/workers/photo-worker.mjs', import.meta.url))] },
+    // The print face for figure exports and social cards (server/utils/figure-export/fonts.ts).
+    serverAssets: [{
+      baseName: 'print-fonts',
+      dir: fileURLToPath(new URL('./node_modules/@fontsource/merriweather/files', import.meta.url)),
+      pattern: 'merriweather-latin-{400,700}-normal.woff',
+    }],
     hooks: {
       async compiled(nitro) {
         const { cp } = await import('node:fs/promises')

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { contentSecurityPolicy, inlineScriptBodies } from '#shared/utils/csp'
+import { contentSecurityPolicy, embedContentSecurityPolicy, inlineScriptBodies, isEmbedPath } from '#shared/utils/csp'
 
 const sha256 = (body: string) => createHash('sha256').update(body, 'utf8').digest('base64')
 
@@ -18,7 +18,8 @@ export default defineNitroPlugin((nitroApp) => {
   nitroApp.hooks.hook('render:response', (response, { event }) => {
     if (typeof response.body !== 'string') return
     const hashes = event.context.cspScriptHashes ?? inlineScriptBodies(response.body).map(sha256)
-    response.headers = { ...response.headers, 'content-security-policy': contentSecurityPolicy(hashes, imageOrigins) }
+    const policy = isEmbedPath(event.path) ? embedContentSecurityPolicy(hashes) : contentSecurityPolicy(hashes, imageOrigins)
+    response.headers = { ...response.headers, 'content-security-policy': policy }
   })
 })
 

@@ -33,10 +33,12 @@ const ELIGIBLE: { pattern: RegExp, slug?: number }[] = [
   { pattern: /^\/$/ },
   { pattern: /^\/stories\/?$/ },
   { pattern: /^\/stories\/([a-z0-9-]+)\/?$/, slug: 1 },
+  { pattern: /^\/embed\/([a-z0-9-]+)\/\d+$/, slug: 1 },
   { pattern: /^\/(browse\/(engine|part)|tags)\/[^/]+\/?$/ },
   { pattern: /^\/search\/?$/ },
   { pattern: /^\/(feed|sitemap)\.xml$/ },
-  { pattern: /^\/api\/magazine\/stories\/([a-z0-9-]+)(\/[a-z.-]+)?$/, slug: 1 },
+  // Not the social card: it has its own caches and answers If-None-Match (figure-export/social-card.ts).
+  { pattern: /^\/api\/magazine\/stories\/([a-z0-9-]+)(\/(?!card\.png$)[a-z.-]+)?$/, slug: 1 },
   { pattern: /^\/api\/magazine\/(home|latest|search|engine\/[^/]+|part\/[^/]+|tags\/[^/]+)$/ },
 ]
 

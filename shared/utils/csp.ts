@@ -42,3 +42,28 @@ export function contentSecurityPolicy(scriptHashes: string[], imageOrigins: stri
     `frame-ancestors 'none'`,
   ].join('; ')
 }
+
+/**
+ * The embed page's policy (/embed/<slug>/<n>, one figure in another site's iframe):
+ * any site may frame it, and it may reach nothing but this site's scripts, styles,
+ * fonts and data; no forms, no plugins, no base URL, nothing from elsewhere.
+ */
+export function embedContentSecurityPolicy(scriptHashes: string[]): string {
+  return [
+    `default-src 'none'`,
+    `script-src 'self' ${scriptHashes.map(h => `'sha256-${h}'`).join(' ')}`.trim(),
+    `style-src 'self' 'unsafe-inline'`,
+    `img-src 'self' data:`,
+    `font-src 'self'`,
+    `connect-src 'self'`,
+    `object-src 'none'`,
+    `base-uri 'none'`,
+    `form-action 'none'`,
+    `frame-ancestors *`,
+  ].join('; ')
+}
+
+/** Pages other sites may frame: only the embed route. */
+export function isEmbedPath(path: string): boolean {
+  return /^\/embed\//.test(path)
+}

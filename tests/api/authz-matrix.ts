@@ -135,6 +135,7 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'GET /api/magazine/search': { expect: PUBLIC, path: () => '/api/magazine/search?q=cam' },
   'GET /api/magazine/stories/:slug': { expect: DESK_ONLY, path: f => `/api/magazine/stories/${f.storySlug}` },
   'GET /api/magazine/stories/:slug/analysis': { expect: DESK_ONLY, path: f => `/api/magazine/stories/${f.storySlug}/analysis` },
+  'GET /api/magazine/stories/:slug/card.png': { expect: DESK_ONLY, path: f => `/api/magazine/stories/${f.storySlug}/card.png` },
   'GET /api/magazine/stories/:slug/data.csv': { expect: DESK_ONLY, path: f => `/api/magazine/stories/${f.storySlug}/data.csv` },
   'GET /api/magazine/stories/:slug/figures': { expect: DESK_ONLY, path: f => `/api/magazine/stories/${f.storySlug}/figures` },
   'GET /api/magazine/tags/:tag': { expect: PUBLIC, path: f => `/api/magazine/tags/${f.publicTag}` },
@@ -158,6 +159,7 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   // These validate the body before the service looks up the story: valid bodies, stale versions.
   'PATCH /api/stories/:id': { expect: OWNER, path: st, body: () => ({ version: 999_999, autosave: true, deck: 'Matrix' }) },
   'GET /api/stories/:id/figures': { expect: OWNER, path: f => `${st(f)}/figures` },
+  'GET /api/stories/:id/figures/:number/print': { expect: OWNER, path: f => `${st(f)}/figures/1/print?format=svg&columns=one` },
   'DELETE /api/stories/:id/lock': { expect: OWNER, path: f => `${st(f)}/lock` },
   'POST /api/stories/:id/lock': { expect: OWNER, path: f => `${st(f)}/lock`, body: () => ({}) },
   'PATCH /api/stories/:id/notes/:noteId': { expect: OWNER, path: f => `${st(f)}/notes/${f.noteId}`, body: () => ({ resolved: false }) },
@@ -165,6 +167,7 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'POST /api/stories/:id/notes': { expect: OWNER, path: f => `${st(f)}/notes`, body: () => ({ body: 'A matrix note.' }) },
   'GET /api/stories/:id/number-check': { expect: OWNER, path: f => `${st(f)}/number-check` },
   'POST /api/stories/:id/preview-links/:linkId/revoke': { expect: OWNER, path: f => `${st(f)}/preview-links/${f.previewLinkId}/revoke` },
+  'GET /api/stories/:id/print-package': { expect: OWNER, path: f => `${st(f)}/print-package` },
   'GET /api/stories/:id/preview-links': { expect: OWNER, path: f => `${st(f)}/preview-links` },
   'POST /api/stories/:id/preview-links': { expect: OWNER, path: f => `${st(f)}/preview-links`, body: () => ({ label: 'Matrix link' }) },
   'GET /api/stories/:id/revisions/:revisionId': { expect: OWNER, path: f => `${st(f)}/revisions/${f.revisionId}` },

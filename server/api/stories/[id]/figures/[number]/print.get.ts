@@ -1,0 +1,11 @@
+// One figure of a story for the print edition: SVG or PDF at one, two or three columns; the results table as PDF or CSV.
+import { PrintExportQuery, PrintFigureParams, storyPrintFile } from '~~/server/utils/figure-export/print-exports'
+import { deskFigureStory } from '~~/server/utils/figure-export/story-source'
+import { sendDownload } from '~~/server/utils/figure-export/download'
+
+export default defineEventHandler(async (event) => {
+  const { user, params } = await requireStoryRoute(event, PrintFigureParams)
+  const query = await getValidatedQuery(event, zodParser(PrintExportQuery))
+  const file = await storyPrintFile(await deskFigureStory(user, params.id), params.number, query.format, query.columns)
+  return sendDownload(event, file)
+})
