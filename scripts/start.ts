@@ -1,5 +1,6 @@
 // npm start: services, migrations, demo seed when empty, build when needed, production server.
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../shared/utils/demo-accounts'
+import { buildDemoMagazine, demoMagazineWanted } from './demo/magazine'
 import { startApp } from './lib/app'
 import { buildIfNeeded } from './lib/build'
 import { migrate, seedIfEmpty } from './lib/database'
@@ -26,10 +27,17 @@ process.on('SIGTERM', () => void shutdown(0))
 try {
   const { DATABASE_URL } = serverEnv(env)
   await migrate(DATABASE_URL!)
-  await seedIfEmpty(DATABASE_URL!)
+  const seedStarted = Date.now()
+  if (await seedIfEmpty(DATABASE_URL!)) console.log(`database: demo data seeded in ${((Date.now() - seedStarted) / 1000).toFixed(1)} s`)
   await buildIfNeeded()
   app = await startApp(env)
   app.on('exit', code => void shutdown(code ?? 1))
+  if (await demoMagazineWanted(DATABASE_URL!)) {
+    console.log('demo magazine: writing, photographing and publishing the season...')
+    await buildDemoMagazine(env.app.baseUrl, DATABASE_URL!)
+      .then(r => console.log(`demo magazine: ${r.stories} stories, ${r.photos} photos in ${r.seconds.toFixed(1)} s`))
+      .catch((error: Error) => console.warn(`demo magazine: stopped: ${error.message}`))
+  }
   console.log(`
 Pullsheet is running at ${env.app.baseUrl}
 

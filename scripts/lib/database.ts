@@ -25,7 +25,6 @@ export async function seedIfEmpty(databaseUrl: string): Promise<boolean> {
     const row = await db('users').count({ n: '*' }).first()
     if (Number(row?.n ?? 0) > 0) return false
     await db.seed.run()
-    console.log('database: demo data seeded')
     return true
   }
   finally { await db.destroy() }
