@@ -5,6 +5,8 @@
 // cross, the gain is inside repeatability), `check` tests that claim against the
 // analysis first and the seed stops if it does not hold. All names are invented.
 import type { AnalysisResponse, AnalysisRow } from '../../shared/types/workspace'
+import { DEMO_BENCH_TESTS } from '../../server/db/demo/bench-tests'
+import { DEMO_MAGAZINE_TESTS } from '../../server/db/demo/magazine-tests'
 import type { PhotoScene } from './photo-scenes'
 
 export type DemoEnd = 'published' | 'withdrawn' | 'in_review' | 'changes_requested' | 'approved' | 'scheduled' | 'draft'
@@ -57,6 +59,14 @@ function row(a: AnalysisResponse, setupId: number): AnalysisRow {
   return found
 }
 
+/** The dyno computer's screen showing the bench test's own curves (the model's, noiseless). */
+function screenOf(slug: string, seed: number, setupIndexes?: number[]): PhotoScene {
+  const test = [...DEMO_BENCH_TESTS, ...DEMO_MAGAZINE_TESTS].find(t => t.slug === slug)
+  if (!test) throw new Error(`demo seed: no demo bench test ${slug}`)
+  const setups = setupIndexes ? setupIndexes.map(i => test.setups[i]!) : test.setups
+  return { kind: 'screen', models: setups.map(s => s.model), fromRpm: test.rpm.from, toRpm: test.rpm.to, seed }
+}
+
 function gallery(c: StoryContext, from = 1): string {
   return `::gallery{ids="${c.p.slice(from).join(',')}"}\n::`
 }
@@ -73,7 +83,7 @@ export const DEMO_STORIES: DemoStory[] = [
     photos: [
       { hero: true, scene: { kind: 'engine', cylinders: 8, layout: 'v', accent: 'signal', seed: 301 }, caption: 'The 5.7 on the stand in bay 1, between cam swaps.', credit: CREDIT_STAFF, altText: 'A V8 engine with orange valve covers on an engine stand in a dyno cell, headers sweeping down to the floor.' },
       { scene: { kind: 'bench', part: 'camshaft', count: 3, seed: 302 }, caption: 'The three test cams, shortest duration on the left.', credit: CREDIT_STAFF, altText: 'Three camshafts side by side on a wooden workbench in front of a pegboard.' },
-      { scene: { kind: 'screen', models: [{ peakTorqueLbFt: 392, peakTorqueRpm: 3600, widthLowRpm: 2200, widthHighRpm: 1900 }, { peakTorqueLbFt: 405, peakTorqueRpm: 4400, widthLowRpm: 2050, widthHighRpm: 2350 }], fromRpm: 2500, toRpm: 6500, seed: 303 }, caption: 'Production cam against the 226 grind on the dyno screen.', credit: CREDIT_SHOP, altText: 'A monitor in a dark control room showing two power curves that cross over a grid.' },
+      { scene: screenOf('three-camshafts-in-a-5-7-l-pushrod-v8', 303, [0, 2]), caption: 'Production cam against the 226 grind on the dyno screen.', credit: CREDIT_SHOP, altText: 'A monitor in a dark control room showing two power curves that cross over a grid.' },
     ],
     body: (c) => {
       const [stock, c214, c226, c238] = c.s as [number, number, number, number]
@@ -133,7 +143,7 @@ ${INVENTED}`
     photos: [
       { hero: true, scene: { kind: 'bench', part: 'intake', count: 2, seed: 311 }, caption: 'The dual-plane (left) and the single-plane before the swap.', credit: CREDIT_STAFF, altText: 'Two aluminium intake manifolds side by side on a workbench.' },
       { scene: { kind: 'engine', cylinders: 8, layout: 'v', accent: 'gauge', seed: 312 }, caption: 'The 6.6 with the single-plane and the test carburetor fitted.', credit: CREDIT_STAFF, altText: 'A V8 engine with teal valve covers and a carburetor on top, on a stand in the dyno cell.' },
-      { scene: { kind: 'screen', models: [{ peakTorqueLbFt: 482, peakTorqueRpm: 3900, widthLowRpm: 2500, widthHighRpm: 2200 }, { peakTorqueLbFt: 466, peakTorqueRpm: 4600, widthLowRpm: 2100, widthHighRpm: 2700 }], fromRpm: 2500, toRpm: 6500, seed: 313 }, caption: 'The two manifolds overlaid on the control-room screen.', credit: CREDIT_SHOP, altText: 'A monitor showing two sets of curves that cross near the middle of the rpm range.' },
+      { scene: screenOf('dual-plane-or-single-plane-on-a-6-6-l-v8', 313), caption: 'The two manifolds overlaid on the control-room screen.', credit: CREDIT_SHOP, altText: 'A monitor showing two sets of curves that cross near the middle of the rpm range.' },
     ],
     body: (c) => {
       const [dual, single] = c.s as [number, number]
@@ -185,7 +195,7 @@ ${INVENTED}`
     photos: [
       { hero: true, scene: { kind: 'engine', cylinders: 6, layout: 'inline', accent: 'gauge', seed: 321 }, caption: 'The 4.2 inline six on the co-op\'s eddy-current dyno.', credit: CREDIT_STAFF, altText: 'An inline six-cylinder engine with a long teal valve cover on an engine stand.' },
       { scene: { kind: 'bench', part: 'throttle-body', count: 2, seed: 322 }, caption: 'Factory 62 mm (left) and the 68 mm billet throttle body.', credit: CREDIT_STAFF, altText: 'Two round throttle bodies of different sizes on a workbench.' },
-      { scene: { kind: 'screen', models: [{ peakTorqueLbFt: 276, peakTorqueRpm: 3600, widthLowRpm: 2300, widthHighRpm: 2050 }, { peakTorqueLbFt: 276.6, peakTorqueRpm: 3620, widthLowRpm: 2300, widthHighRpm: 2060 }], fromRpm: 2000, toRpm: 5600, seed: 323 }, caption: 'Two curves that lie on top of each other.', credit: CREDIT_SHOP, altText: 'A monitor showing two nearly identical power curves.' },
+      { scene: screenOf('a-68-mm-throttle-body-on-a-4-2-l-inline-six', 323), caption: 'Two curves that lie on top of each other.', credit: CREDIT_SHOP, altText: 'A monitor showing two nearly identical power curves.' },
     ],
     body: (c) => {
       const [small, big] = c.s as [number, number]
@@ -230,7 +240,7 @@ ${INVENTED}`
     photos: [
       { hero: true, scene: { kind: 'bench', part: 'headers', count: 2, seed: 331 }, caption: 'The 1 3/4 and 1 7/8 in long-tube sets before fitting.', credit: CREDIT_STAFF, altText: 'Two sets of stainless long-tube headers on a workbench.' },
       { scene: { kind: 'engine', cylinders: 8, layout: 'v', accent: 'signal', seed: 332 }, caption: 'The 6.3 on the stand in cell 2 with the smaller headers.', credit: CREDIT_SHOP, altText: 'A V8 engine on a stand with long header tubes running down towards the floor.' },
-      { scene: { kind: 'screen', models: [{ peakTorqueLbFt: 432, peakTorqueRpm: 4400, widthLowRpm: 2700, widthHighRpm: 1900 }, { peakTorqueLbFt: 446, peakTorqueRpm: 4500, widthLowRpm: 2700, widthHighRpm: 2050 }, { peakTorqueLbFt: 441, peakTorqueRpm: 4750, widthLowRpm: 2350, widthHighRpm: 2250 }], fromRpm: 3000, toRpm: 6500, seed: 333 }, caption: 'Manifolds and both header sizes on the screen.', credit: CREDIT_SHOP, altText: 'A monitor showing three power curves.' },
+      { scene: screenOf('long-tube-headers-on-a-6-3-l-pushrod-v8', 333), caption: 'Manifolds and both header sizes on the screen.', credit: CREDIT_SHOP, altText: 'A monitor showing three power curves.' },
     ],
     body: (c) => {
       const [stock, small, large] = c.s as [number, number, number]
@@ -272,7 +282,7 @@ ${INVENTED}`
     photos: [
       { hero: true, scene: { kind: 'engine', cylinders: 6, layout: 'inline', accent: 'signal', seed: 341 }, caption: 'The six ready for its first pull of the morning.', credit: CREDIT_STAFF, altText: 'An inline six-cylinder engine with an orange valve cover on a stand in the dyno cell.' },
       { scene: { kind: 'bench', part: 'distributor', count: 1, seed: 342 }, caption: 'Ignition parts laid out before the sweep.', credit: CREDIT_STAFF, altText: 'An ignition part with wires fanning out, on a workbench.' },
-      { scene: { kind: 'screen', models: [{ peakTorqueLbFt: 268, peakTorqueRpm: 3600, widthLowRpm: 2300, widthHighRpm: 2000 }, { peakTorqueLbFt: 276, peakTorqueRpm: 3600, widthLowRpm: 2300, widthHighRpm: 2050 }, { peakTorqueLbFt: 277, peakTorqueRpm: 3650, widthLowRpm: 2250, widthHighRpm: 2050 }], fromRpm: 2000, toRpm: 5600, seed: 343 }, caption: 'The three timing settings overlaid.', credit: CREDIT_SHOP, altText: 'A monitor showing three power curves, two nearly on top of each other.' },
+      { scene: screenOf('timing-sweep-on-a-4-2-l-inline-six', 343), caption: 'The three timing settings overlaid.', credit: CREDIT_SHOP, altText: 'A monitor showing three power curves, two nearly on top of each other.' },
     ],
     body: (c) => {
       const [t28, t32, t36] = c.s as [number, number, number]
@@ -312,7 +322,7 @@ ${INVENTED}`
     photos: [
       { hero: true, scene: { kind: 'bench', part: 'carburetor', count: 3, seed: 351 }, caption: 'The three test carburetors, smallest on the left.', credit: CREDIT_STAFF, altText: 'Three four-barrel carburetors lined up on a workbench.' },
       { scene: { kind: 'engine', cylinders: 8, layout: 'v', accent: 'gauge', seed: 352 }, caption: 'The 5.7 in cell 2 with the 750 fitted.', credit: CREDIT_SHOP, altText: 'A V8 with teal valve covers and a carburetor on a stand.' },
-      { scene: { kind: 'screen', models: [{ peakTorqueLbFt: 416, peakTorqueRpm: 4200, widthLowRpm: 2300, widthHighRpm: 1950 }, { peakTorqueLbFt: 419, peakTorqueRpm: 4300, widthLowRpm: 2300, widthHighRpm: 2150 }, { peakTorqueLbFt: 415, peakTorqueRpm: 4450, widthLowRpm: 2200, widthHighRpm: 2300 }], fromRpm: 2500, toRpm: 6500, seed: 353 }, caption: 'The three carburetors on the screen.', credit: CREDIT_SHOP, altText: 'A monitor showing three close power curves.' },
+      { scene: screenOf('650-750-or-850-cfm-on-a-5-7-l-v8', 353), caption: 'The three carburetors on the screen.', credit: CREDIT_SHOP, altText: 'A monitor showing three close power curves.' },
     ],
     body: (c) => {
       const [c650, c750, c850] = c.s as [number, number, number]
@@ -321,7 +331,7 @@ ${INVENTED}`
 ::pull-graph{setups="${c650},${c750},${c850}" channel="power"}
 ::
 
-The 750 made ${fv('peak-power-gain', c750, c650)} more than the 650 at the peak, and ${fv('average-power-gain', c750, c650)} averaged across the pull. The 850 found ${fv('peak-power-gain', c850, c750)} more than the 750 at the very top and gave back ${fv('largest-torque-loss', c850, c750)} of torque lower down.
+The 750 made ${fv('peak-power-gain', c750, c650)} more than the 650 at the peak, and ${fv('average-power-gain', c750, c650)} averaged across the pull. The 850 found only ${fv('peak-power-gain', c850, c750)} more than the 750 at the peak and gave back as much as ${fv('largest-torque-loss', c850, c750)} of torque lower down, where a street engine spends its time.
 
 ::gain-graph{baseline=${c650} setups="${c750},${c850}"}
 ::
@@ -341,6 +351,12 @@ ${gallery(c)}
 
 ${INVENTED}`
     },
+    check: (a, { s: [, c750, c850] }) => {
+      const g = row(a, c850!).vsPrevious
+      if (!g || !(g.peakPowerPct < 2)) return 'the 850 gains 2 percent or more over the 750 at the peak'
+      if (!(g.largestLoss.torque.value < 0)) return 'the 850 loses no torque against the 750'
+      return c750 ? null : 'no 750 setup'
+    },
   },
   {
     benchTestSlug: 'a-free-flowing-downpipe-on-a-2-0-l-turbo-four',
@@ -352,7 +368,7 @@ ${INVENTED}`
     photos: [
       { hero: true, scene: { kind: 'engine', cylinders: 4, layout: 'inline', accent: 'signal', seed: 361 }, caption: 'The turbo four on the lab\'s eddy-current dyno.', credit: CREDIT_STAFF, altText: 'A four-cylinder engine with an orange cover on a stand in a dyno cell.' },
       { scene: { kind: 'bench', part: 'downpipe', count: 2, seed: 362 }, caption: 'Factory downpipe and the 3 in replacement.', credit: CREDIT_STAFF, altText: 'Two bent exhaust pipes of different diameters on a workbench.' },
-      { scene: { kind: 'screen', models: [{ peakTorqueLbFt: 292, peakTorqueRpm: 3900, widthLowRpm: 1500, widthHighRpm: 2900 }, { peakTorqueLbFt: 305, peakTorqueRpm: 4000, widthLowRpm: 1450, widthHighRpm: 3050 }], fromRpm: 2500, toRpm: 7000, seed: 363 }, caption: 'Both downpipes on the control-room screen.', credit: CREDIT_SHOP, altText: 'A monitor showing two power curves, one above the other at high rpm.' },
+      { scene: screenOf('a-free-flowing-downpipe-on-a-2-0-l-turbo-four', 363), caption: 'Both downpipes on the control-room screen.', credit: CREDIT_SHOP, altText: 'A monitor showing two power curves, one above the other at high rpm.' },
     ],
     body: (c) => {
       const [stock, dp] = c.s as [number, number]

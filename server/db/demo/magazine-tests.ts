@@ -49,19 +49,19 @@ const CAM_TEST: DemoBenchTest = {
     },
     {
       setup: { label: '214 cam', description: 'Mild street grind: 214 / 224 degrees at 0.050 in.', parts: [{ category: 'camshaft', maker: 'Ridgeback Cams (fictional)', model: 'RB-214', intakeDuration050Deg: 214, exhaustDuration050Deg: 224, intakeAdvertisedDeg: 276, exhaustAdvertisedDeg: 286, intakeLiftIn: 0.512, exhaustLiftIn: 0.52, lsaDeg: 110, iclDeg: 106 }] },
-      model: { peakTorqueLbFt: 401, peakTorqueRpm: 4000, widthLowRpm: 2200, widthHighRpm: 2100 },
+      model: { peakTorqueLbFt: 401, peakTorqueRpm: 4000, widthLowRpm: 2600, widthHighRpm: 2100 },
       pulls: 3,
       idle: { idleRpm: 750, vacuumInHg: 16.3 },
     },
     {
       setup: { label: '226 cam', description: 'Hot street grind: 226 / 236 degrees at 0.050 in.', parts: [{ category: 'camshaft', maker: 'Ridgeback Cams (fictional)', model: 'RB-226', intakeDuration050Deg: 226, exhaustDuration050Deg: 236, intakeAdvertisedDeg: 288, exhaustAdvertisedDeg: 298, intakeLiftIn: 0.542, exhaustLiftIn: 0.55, lsaDeg: 110, iclDeg: 106 }] },
-      model: { peakTorqueLbFt: 405, peakTorqueRpm: 4400, widthLowRpm: 2050, widthHighRpm: 2350 },
+      model: { peakTorqueLbFt: 405, peakTorqueRpm: 4400, widthLowRpm: 2700, widthHighRpm: 2350 },
       pulls: 3,
       idle: { idleRpm: 750, vacuumInHg: 13.8 },
     },
     {
       setup: { label: '238 cam', description: 'Strip-leaning grind: 238 / 248 degrees at 0.050 in.', parts: [{ category: 'camshaft', maker: 'Ridgeback Cams (fictional)', model: 'RB-238', intakeDuration050Deg: 238, exhaustDuration050Deg: 248, intakeAdvertisedDeg: 300, exhaustAdvertisedDeg: 310, intakeLiftIn: 0.575, exhaustLiftIn: 0.583, lsaDeg: 110, iclDeg: 106 }] },
-      model: { peakTorqueLbFt: 399, peakTorqueRpm: 4900, widthLowRpm: 1850, widthHighRpm: 2600 },
+      model: { peakTorqueLbFt: 399, peakTorqueRpm: 4900, widthLowRpm: 3100, widthHighRpm: 2600 },
       pulls: 3,
       idle: { idleRpm: 800, vacuumInHg: 11.1 },
     },
@@ -88,13 +88,13 @@ const MANIFOLD_TEST: DemoBenchTest = {
   setups: [
     {
       setup: { label: 'Dual-plane', description: 'Dual-plane manifold with a divided plenum, built for low-speed torque.', parts: [{ category: 'intake-manifold', type: 'dual-plane', maker: 'Corvid Castings (fictional)', model: 'DP-40', plenumNotes: 'Divided plenum, 1 in open spacer' }] },
-      model: { peakTorqueLbFt: 482, peakTorqueRpm: 3900, widthLowRpm: 2500, widthHighRpm: 2200 },
+      model: { peakTorqueLbFt: 482, peakTorqueRpm: 3900, widthLowRpm: 2500, widthHighRpm: 2900 },
       pulls: 3,
       idle: { idleRpm: 800, vacuumInHg: 14.2 },
     },
     {
       setup: { label: 'Single-plane', description: 'Open single-plane manifold with short runners, built for high rpm.', parts: [{ category: 'intake-manifold', type: 'single-plane', maker: 'Corvid Castings (fictional)', model: 'SP-65', runnerNotes: 'Short, straight runners into one open plenum' }] },
-      model: { peakTorqueLbFt: 466, peakTorqueRpm: 4600, widthLowRpm: 2100, widthHighRpm: 2700 },
+      model: { peakTorqueLbFt: 466, peakTorqueRpm: 4600, widthLowRpm: 3000, widthHighRpm: 2600 },
       pulls: 3,
       idle: { idleRpm: 800, vacuumInHg: 13.9 },
     },
@@ -119,9 +119,9 @@ const CARB_TEST: DemoBenchTest = {
   extra: { wotVacuumInHg: 1.6, afr: 12.8 },
   day: { from: COOL_MORNING, to: HOT_AFTERNOON },
   setups: [
-    { setup: { label: '650 cfm', description: 'The smallest of the three, vacuum secondaries.', parts: [{ category: 'carburetor', maker: 'Larkspur Fuel Systems (fictional)', model: 'LF-650', airflowCfm: 650 }] }, model: { peakTorqueLbFt: 416, peakTorqueRpm: 4200, widthLowRpm: 2300, widthHighRpm: 1950 }, pulls: 3 },
-    { setup: { label: '750 cfm', description: 'Mechanical secondaries.', parts: [{ category: 'carburetor', maker: 'Larkspur Fuel Systems (fictional)', model: 'LF-750', airflowCfm: 750 }] }, model: { peakTorqueLbFt: 419, peakTorqueRpm: 4300, widthLowRpm: 2300, widthHighRpm: 2150 }, pulls: 3 },
-    { setup: { label: '850 cfm', description: 'Mechanical secondaries, larger venturis.', parts: [{ category: 'carburetor', maker: 'Larkspur Fuel Systems (fictional)', model: 'LF-850', airflowCfm: 850 }] }, model: { peakTorqueLbFt: 415, peakTorqueRpm: 4450, widthLowRpm: 2200, widthHighRpm: 2300 }, pulls: 3 },
+    { setup: { label: '650 cfm', description: 'The smallest of the three, vacuum secondaries.', parts: [{ category: 'carburetor', maker: 'Larkspur Fuel Systems (fictional)', model: 'LF-650', airflowCfm: 650 }] }, model: { peakTorqueLbFt: 416, peakTorqueRpm: 4200, widthLowRpm: 2600, widthHighRpm: 1950 }, pulls: 3 },
+    { setup: { label: '750 cfm', description: 'Mechanical secondaries.', parts: [{ category: 'carburetor', maker: 'Larkspur Fuel Systems (fictional)', model: 'LF-750', airflowCfm: 750 }] }, model: { peakTorqueLbFt: 419, peakTorqueRpm: 4300, widthLowRpm: 2600, widthHighRpm: 2150 }, pulls: 3 },
+    { setup: { label: '850 cfm', description: 'Mechanical secondaries, larger venturis.', parts: [{ category: 'carburetor', maker: 'Larkspur Fuel Systems (fictional)', model: 'LF-850', airflowCfm: 850 }] }, model: { peakTorqueLbFt: 411, peakTorqueRpm: 4450, widthLowRpm: 2500, widthHighRpm: 2200 }, pulls: 3 },
   ],
 }
 
@@ -278,7 +278,7 @@ const OHC_V8_CAMS: DemoBenchTest = {
   day: { from: HUMID_DAY, to: HUMID_EVENING },
   setups: [
     { setup: { label: 'Factory intake cams', description: 'As delivered.', parts: [{ category: 'camshaft', maker: 'Factory', intakeDuration050Deg: 202, exhaustDuration050Deg: 204, intakeLiftIn: 0.47, exhaustLiftIn: 0.46, lsaDeg: 118, iclDeg: 116 }] }, model: { peakTorqueLbFt: 402, peakTorqueRpm: 4800, widthLowRpm: 2400, widthHighRpm: 2600 }, pulls: 3, idle: { idleRpm: 650, vacuumInHg: 19.8 } },
-    { setup: { label: 'Longer intake cams', description: 'Intake cams with 18 degrees more duration.', parts: [{ category: 'camshaft', maker: 'Ridgeback Cams (fictional)', model: 'RB-OV220', intakeDuration050Deg: 220, exhaustDuration050Deg: 204, intakeLiftIn: 0.51, exhaustLiftIn: 0.46, lsaDeg: 118, iclDeg: 114 }] }, model: { peakTorqueLbFt: 405, peakTorqueRpm: 5200, widthLowRpm: 2200, widthHighRpm: 2800 }, pulls: 3, idle: { idleRpm: 700, vacuumInHg: 17.2 } },
+    { setup: { label: 'Longer intake cams', description: 'Intake cams with 18 degrees more duration.', parts: [{ category: 'camshaft', maker: 'Ridgeback Cams (fictional)', model: 'RB-OV220', intakeDuration050Deg: 220, exhaustDuration050Deg: 204, intakeLiftIn: 0.51, exhaustLiftIn: 0.46, lsaDeg: 118, iclDeg: 114 }] }, model: { peakTorqueLbFt: 405, peakTorqueRpm: 5200, widthLowRpm: 2700, widthHighRpm: 2800 }, pulls: 3, idle: { idleRpm: 700, vacuumInHg: 17.2 } },
   ],
 }
 
