@@ -122,27 +122,32 @@ async function finish(p: Prepared, editor: DemoClient, now: Date): Promise<void>
 /**
  * The demo clock: a published story's publication and its trail of transitions are
  * moved back to `publishedDaysAgo` days before now (at 14:00 UTC), keeping their order;
- * a withdrawn one was withdrawn three days after it went out. Only the demo seed does
- * this, right after publishing and before anyone reads a page.
+ * a withdrawn one was withdrawn three days after it went out. A story still on the
+ * desk last moved `movedHoursAgo` hours ago. Only the demo seed does this, right after
+ * the workflow ran and before anyone reads a page.
  */
 async function applyDemoClock(db: Knex, prepared: Prepared[], now: Date): Promise<void> {
+  const hour = 3600_000
   for (const p of prepared) {
-    const days = p.demo.publishedDaysAgo
-    if (days === undefined || !p.story) continue
-    const published = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() - days, 14, 0, 0))
-    const hour = 3600_000
+    const { publishedDaysAgo: days, movedHoursAgo } = p.demo
+    if (!p.story || (days === undefined && movedHoursAgo === undefined)) continue
+    const anchor = days !== undefined
+      ? new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() - days, 14, 0, 0))
+      : new Date(now.getTime() - movedHoursAgo! * hour)
     await db.transaction(async (trx) => {
       const moves = await trx('story_transitions').where({ story_id: p.story!.id }).orderBy('id').select('id', 'to_state') as { id: number, to_state: string }[]
-      const publishAt = moves.findIndex(m => m.to_state === 'published')
+      // The move the anchor stands for: going live, or the last one for the desk's stories.
+      const anchorMove = days !== undefined ? moves.findIndex(m => m.to_state === 'published') : moves.length - 1
       for (const [i, m] of moves.entries()) {
-        const at = i <= publishAt ? published.getTime() - (publishAt - i) * 20 * hour : published.getTime() + 3 * 24 * hour
+        const at = i <= anchorMove ? anchor.getTime() - (anchorMove - i) * 20 * hour : anchor.getTime() + 3 * 24 * hour
         await trx('story_transitions').where({ id: m.id }).update({ created_at: new Date(at) })
       }
-      const last = p.demo.end === 'withdrawn' ? new Date(published.getTime() + 3 * 24 * hour) : published
+      const last = p.demo.end === 'withdrawn' ? new Date(anchor.getTime() + 3 * 24 * hour) : anchor
       await trx('stories').where({ id: p.story!.id }).update({
-        published_at: published,
+        ...(days !== undefined ? { published_at: anchor } : {}),
         state_changed_at: last,
-        created_at: new Date(published.getTime() - (publishAt + 2) * 20 * hour),
+        updated_at: last,
+        created_at: new Date(anchor.getTime() - (anchorMove + 2) * 20 * hour),
       })
     })
   }

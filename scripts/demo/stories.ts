@@ -32,6 +32,8 @@ export interface DemoStory {
   end: DemoEnd
   /** Days before the demo's "today" it was published (published and withdrawn only). */
   publishedDaysAgo?: number
+  /** Hours before now it last changed state (the stories still on the desk). */
+  movedHoursAgo?: number
   headline: string
   deck: string
   tags: string[]
@@ -470,6 +472,7 @@ ${INVENTED}`
   {
     benchTestSlug: 'equal-length-headers-on-a-2-5-l-flat-four',
     end: 'in_review',
+    movedHoursAgo: 5,
     headline: 'Equal-length headers on the 2.5 flat four',
     deck: 'The factory unequal-length manifold against equal-length headers: more power, less burble.',
     tags: ['headers', 'flat-four'],
@@ -499,6 +502,7 @@ ${INVENTED}`
   {
     benchTestSlug: 'bigger-intake-cams-in-a-5-0-l-overhead-cam-v8',
     end: 'changes_requested',
+    movedHoursAgo: 28,
     headline: 'Bigger intake cams in the 5.0 overhead-cam V8',
     deck: 'Eighteen more degrees on the intake side, cam timing left on the factory map.',
     tags: ['camshaft', 'ohc-v8'],
@@ -525,6 +529,7 @@ ${INVENTED}`
   {
     benchTestSlug: 'a-bigger-intercooler-on-a-3-0-l-turbo-diesel',
     end: 'approved',
+    movedHoursAgo: 51,
     headline: 'A bigger intercooler on the 3.0 turbo diesel',
     deck: 'Colder charge air, the same calibration: what a larger bar-and-plate core gives a six-cylinder diesel.',
     tags: ['intercooler', 'diesel'],
@@ -558,6 +563,7 @@ ${INVENTED}`
   {
     benchTestSlug: 'a-larger-throttle-body-on-a-3-5-l-v6',
     end: 'scheduled',
+    movedHoursAgo: 22,
     headline: 'A 74 mm throttle body on the 3.5 V6',
     deck: 'On the V6 the factory throttle is a real restriction at the top of the rev range. A bigger one shows it.',
     tags: ['throttle-body', 'v6'],
@@ -591,6 +597,7 @@ ${INVENTED}`
   {
     benchTestSlug: 'fuel-pressure-on-a-2-5-l-flat-four',
     end: 'draft',
+    movedHoursAgo: 74,
     headline: 'Does fuel pressure matter on the 2.5 flat four?',
     deck: 'Base pressure 43 against 58 psi, pulse width trimmed to the same mixture. Draft.',
     tags: ['fuel', 'flat-four'],

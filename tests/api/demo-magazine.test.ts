@@ -4,6 +4,7 @@
 // families and five part types, each with a hero and a gallery of sized, captioned
 // photos; one story in every desk state; the withdrawn one answers 410.
 import type { ChildProcess } from 'node:child_process'
+import { loadavg } from 'node:os'
 import { CreateBucketCommand, S3Client } from '@aws-sdk/client-s3'
 import type { Knex } from 'knex'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -37,13 +38,16 @@ beforeAll(async () => {
     if (error.name !== 'BucketAlreadyOwnedByYou' && error.name !== 'BucketAlreadyExists') throw error
   })
   await migrate(url)
+  const started = Date.now()
   const before = process.env.PULLSHEET_DEMO_STORIES
   process.env.PULLSHEET_DEMO_STORIES = '1' // the test run turns the demo off for everything else
   try { await seed(url) }
   finally { process.env.PULLSHEET_DEMO_STORIES = before }
   // Its mail goes nowhere: the other tests read the shared catcher for the demo accounts.
   app = await startApp(env, { DATABASE_URL: url, S3_BUCKET: BUCKET, BASE_URL: BASE, SMTP_URL: 'smtp://127.0.0.1:9', PHOTO_POLL_MS: '200' }, PORT)
+  const seeded = Date.now()
   result = await buildDemoMagazine(BASE, url, new Date())
+  console.log(`demo magazine: ${result.stories} stories, ${result.photos} photos in ${result.seconds.toFixed(1)} s (seed and server start before it ${((seeded - started) / 1000).toFixed(1)} s, load average ${loadavg()[0]!.toFixed(1)})`)
   db = scriptDb(url)
 }, 900_000) // minutes on a machine shared with other work: it sizes 27 photos
 
