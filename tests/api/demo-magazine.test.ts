@@ -5,13 +5,14 @@
 // photos; one story in every desk state; the withdrawn one answers 410.
 import type { ChildProcess } from 'node:child_process'
 import { loadavg } from 'node:os'
+import { join } from 'node:path'
 import { CreateBucketCommand, S3Client } from '@aws-sdk/client-s3'
 import type { Knex } from 'knex'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { buildDemoMagazine, type DemoMagazineResult } from '../../scripts/demo/magazine'
 import { startApp } from '../../scripts/lib/app'
-import { migrate, scriptDb, seed } from '../../scripts/lib/database'
-import { localEnv, serverEnv } from '../../scripts/lib/env'
+import { scriptDb } from '../../scripts/lib/database'
+import { localEnv, ROOT, serverEnv } from '../../scripts/lib/env'
 import { mariadbBinaries } from '../../scripts/lib/mariadb'
 import { killGroup, run } from '../../scripts/lib/proc'
 
@@ -37,12 +38,15 @@ beforeAll(async () => {
   await s3.send(new CreateBucketCommand({ Bucket: BUCKET })).catch((error: { name?: string }) => {
     if (error.name !== 'BucketAlreadyOwnedByYou' && error.name !== 'BucketAlreadyExists') throw error
   })
-  await migrate(url)
   const started = Date.now()
-  const before = process.env.PULLSHEET_DEMO_STORIES
-  process.env.PULLSHEET_DEMO_STORIES = '1' // the test run turns the demo off for everything else
-  try { await seed(url) }
-  finally { process.env.PULLSHEET_DEMO_STORIES = before }
+  // Knex loads .ts migrations only under tsx, as npm start and npm test do.
+  const dbScript = (command: string) => run(join(ROOT, 'node_modules', '.bin', 'tsx'), ['scripts/db.ts', command], {
+    cwd: ROOT,
+    quiet: true,
+    env: { ...process.env, DATABASE_URL: url, PULLSHEET_DEMO_STORIES: '1' }, // the test run turns the demo off elsewhere
+  })
+  await dbScript('migrate')
+  await dbScript('seed')
   // Its mail goes nowhere: the other tests read the shared catcher for the demo accounts.
   app = await startApp(env, { DATABASE_URL: url, S3_BUCKET: BUCKET, BASE_URL: BASE, SMTP_URL: 'smtp://127.0.0.1:9', PHOTO_POLL_MS: '200' }, PORT)
   const seeded = Date.now()
