@@ -113,7 +113,6 @@ export function printGraphOption(base: PullChartOption, size: Pick<PrintSize, 'w
     const out: LineSeriesOption = {
       ...s,
       color: colour,
-      // No point symbols: the legend then keys each setup by its line and dash alone.
       symbol: 'none',
       lineStyle: { color: colour, width: k(PRINT_LINE_PT.curve), type: printDash(s.lineStyle?.type, scale) },
       tooltip: undefined,
@@ -135,6 +134,8 @@ export function printGraphOption(base: PullChartOption, size: Pick<PrintSize, 'w
       top: k(TOP_PT),
       left,
       orient: vertical ? 'vertical' : 'horizontal',
+      // The key is each setup's line and dash alone: ECharts' point symbol on it is hidden.
+      itemStyle: { opacity: 0 },
       itemWidth: k(22),
       itemHeight: k(8),
       itemGap: k(vertical ? LEGEND_ROW_PT - 8 : 10),

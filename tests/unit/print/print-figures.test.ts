@@ -50,7 +50,7 @@ describe('print style', () => {
 
   it('sets every label in the print face at 7 pt or more and shows a legend', () => {
     expect(printed.textStyle).toMatchObject({ fontFamily: 'Merriweather', fontSize: 7 })
-    expect(printed.legend).toMatchObject({ show: true, textStyle: { fontSize: 7 } })
+    expect(printed.legend).toMatchObject({ show: true, textStyle: { fontSize: 7 }, itemStyle: { opacity: 0 } })
     expect(printed.tooltip).toBeUndefined()
   })
 
