@@ -51,14 +51,16 @@ const HAS_SCHEME = /^[a-z][a-z0-9+.-]*:/i
 /** A link target a reader may follow: web, mail, or a path on this site; null for anything else. */
 export function safeHref(value: unknown): string | null {
   if (typeof value !== 'string') return null
-  // Browsers ignore control characters and spaces inside a scheme ("java\tscript:").
+  // Browsers ignore control characters and spaces inside a scheme ("java\tscript:"),
+  // and read a backslash as a slash in web addresses: "/\\host" is "//host", another site.
   // eslint-disable-next-line no-control-regex -- exactly the characters that hide a scheme
-  const squeezed = value.replace(/[\u0000-\u0020\u007f-\u009f\u200b-\u200d\ufeff]+/g, '')
+  const squeezed = value.replace(/[\u0000-\u0020\u007f-\u009f\u200b-\u200d\ufeff]+/g, '').replace(/\\/g, '/')
   if (!squeezed) return null
-  if (SAFE_URL.test(squeezed)) return value.trim()
-  if (HAS_SCHEME.test(squeezed) || squeezed.startsWith('//')) return null
+  if (HAS_SCHEME.test(squeezed) ? !/^(?:https?:\/\/|mailto:)/i.test(squeezed) : squeezed.startsWith('//')) return null
+  const href = value.trim().replace(/\\/g, '/')
+  if (SAFE_URL.test(squeezed)) return href
   // A bare relative path ("methodology") has no scheme and stays on this site.
-  return /^[\w\-.~%/?#=&]+$/.test(squeezed) ? value.trim() : null
+  return /^[\w\-.~%/?#=&]+$/.test(squeezed) ? href : null
 }
 
 function textOf(node: StoryAstNode): string {

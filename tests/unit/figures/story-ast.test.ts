@@ -132,7 +132,14 @@ describe('link targets', () => {
     ['/stories/x', true], ['#results', true], ['how-we-test', true], ['./x', true],
     ['javascript:alert(1)', false], [' JaVaScRiPt:alert(1)', false], ['java\nscript:alert(1)', false],
     ['vbscript:x', false], ['data:text/html,<b>', false], ['//evil.example/x', false], ['file:///etc/passwd', false],
+    // Browsers (WHATWG URL parser) read "\\" as "/" in web addresses: each of these is another site.
+    ['/\\evil.example', false], ['\\\\evil.example', false], ['\\/evil.example', false], ['/\t\\evil.example', false],
+    [' /\\evil.example/x', false], ['./\\x', true],
   ])('%s is %s', (href, ok) => {
     expect(safeHref(href) !== null).toBe(ok)
+  })
+
+  it('hands a followed link on with forward slashes only', () => {
+    expect(safeHref('https:\\\\example.org\\a')).toBe('https://example.org/a')
   })
 })
