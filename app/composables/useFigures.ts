@@ -1,6 +1,6 @@
 import type { InjectionKey } from 'vue'
 import type { StoryFigures } from '#shared/types/stories'
-import type { FigureSource } from '#shared/types/story-figures'
+import { figureSourceOf, setupsUsed } from '#shared/utils/story-view'
 
 /**
  * Who is looking: readers see a figure that cannot be drawn as a quiet gap; the
@@ -25,22 +25,31 @@ export function useStoryFigures() {
   return { figures, analysis, source, audience: ctx.audience }
 }
 
-/** What inlineFigureValue reads: the analysis and every pair's gains. */
-export function figureSource(figures: StoryFigures | null): FigureSource | null {
-  const a = figures?.analysis
-  if (!a || !figures) return null
-  return {
-    analysis: { baselineSetupId: a.baselineSetupId, table: a.table, units: a.units, setups: a.setups.map(s => ({ setupId: s.setupId, label: s.label })) },
-    comparisons: figures.comparisons,
-  }
-}
+/** What inlineFigureValue reads: the analysis and every pair's gains (shared/utils/story-view). */
+export const figureSource = figureSourceOf
 
 export const storyFiguresKey = (storyId: number) => `story-figures:${storyId}`
 
-/** Everything the story's figures are drawn from: one request per story, not per figure. */
-export function fetchStoryFigures(storyId: MaybeRefOrGetter<number>) {
+/** The ?uses= of the figures request for a draft body: the setups its figures name. */
+export function usesQuery(body: string): { uses: string, sheet: '0' | '1' } {
+  const used = setupsUsed(body)
+  return { uses: used.all ? 'all' : used.ids.join(','), sheet: used.buildSheet ? '1' : '0' }
+}
+
+/**
+ * Everything the story's figures are drawn from: one request per story, not per figure.
+ * With a draft body, built from the setups it names (refetched when they change).
+ */
+export function fetchStoryFigures(storyId: MaybeRefOrGetter<number>, draftBody?: MaybeRefOrGetter<string | null>) {
+  // A string first: typing that names the same setups must not refetch.
+  const wanted = computed(() => {
+    const body = toValue(draftBody)
+    return JSON.stringify(typeof body === 'string' ? usesQuery(body) : {})
+  })
+  const query = computed(() => JSON.parse(wanted.value) as Record<string, string>)
   return useFetch<StoryFigures>(() => `/api/stories/${toValue(storyId)}/figures`, {
     key: computed(() => storyFiguresKey(toValue(storyId))),
+    query,
   })
 }
 

@@ -4,18 +4,18 @@
 import type { H3Event } from 'h3'
 import type { Knex } from 'knex'
 import type { z } from 'zod'
-import { ANALYSIS_UNITS } from '#shared/types/analysis'
 import { AnalysisQuery, type AnalysisQueryInput, type AnalysisResponse } from '#shared/types/workspace'
-import type { FigureComparison } from '#shared/types/story-figures'
-import type { StoryReaderView } from '#shared/types/stories'
+import type { ReaderEdition, StoryFigures, StoryReaderView } from '#shared/types/stories'
+import type { StoryData, StoryEditionSummary } from '#shared/types/story-data'
 import type { MagazineStoryResponse } from '#shared/types/magazine'
 import type { CurrentUser } from '#shared/types/users'
 import type { EngineFamily, PartType } from '#shared/types/catalog'
 import { rolesAtLeast } from '#shared/types/roles'
-import { withRoundedCurves } from '#shared/utils/curve-precision'
+import { gainPairsShown } from '#shared/utils/story-view'
 import { deepFreeze } from '#shared/utils/deep-freeze'
 import { LruCache } from '#shared/utils/lru-cache'
-import type { BenchTestRecord } from './bench-access'
+import type { StoryRow as StoryRowFull } from './stories'
+import type { Edition } from './story-view'
 
 /** The reader's switches: correction standard and units (figures in the text stay in hp and lb-ft). */
 export const ReaderAnalysisQuery = AnalysisQuery.pick({ standard: true, units: true })
@@ -58,50 +58,55 @@ export async function findReaderStory(slug: string, user: CurrentUser | null, db
   notFound('No such story.')
 }
 
-async function benchTestOf(db: Knex, id: number): Promise<BenchTestRecord & { owner_name: string }> {
-  const row = await db('bench_tests').join('users as owner', 'owner.id', 'bench_tests.owner_id')
-    .where('bench_tests.id', id).first('bench_tests.*', 'owner.display_name as owner_name')
-  if (!row) notFound('No such story.')
-  return row
+/** The data and text a reader's page is built from: the published edition, or for a desk preview the live story. */
+export interface ReaderSource {
+  data: StoryData
+  hash: string
+  text: { headline: string, deck: string, body: string }
+  edition: Edition | null
 }
 
-// What a reader's graph needs, and no more: every page carries its curves in the
-// payload. 200 points is more than a graph is wide in pixels at a phone's width and
-// close to the server SVG's 160; two decimals sit far below the readout's 0.1.
-const READER_CURVE_POINTS = 200
-const READER_CURVE_PLACES = 2
-
-/** The story's analysis with the reader's standard and units; null with a reason when there is none. */
-export async function readerAnalysis(story: ReaderStory, query: AnalysisQueryInput, db: Knex = useDb()): Promise<{ analysis: AnalysisResponse | null, problem: string | null }> {
-  const benchTest = toBenchTest(await benchTestOf(db, story.row.bench_test_id))
+async function freezeMissingEdition(db: Knex, row: StoryRow): Promise<Edition> {
+  // A story put live before editions existed (or by hand): its edition is frozen the
+  // first time a reader asks, once; a second server asking at the same moment loses
+  // the unique key and reads the winner's.
   try {
-    const analysis = await runAnalysis(db, benchTest, { maxPoints: READER_CURVE_POINTS, ...query })
-    return { analysis: withRoundedCurves(analysis, READER_CURVE_PLACES), problem: null }
+    await db.transaction(async (trx) => {
+      const locked = await trx<StoryRowFull>('stories').where({ id: row.id }).forUpdate().first()
+      if (!locked || await trx('story_editions').where('story_id', row.id).first('id')) return
+      await publishLatestEdition(trx, locked, null)
+    })
   }
   catch (e) {
-    const status = (e as { statusCode?: number }).statusCode
-    if (status === 400) return { analysis: null, problem: (e as Error).message }
-    throw e
+    if ((e as { code?: string }).code !== 'ER_DUP_ENTRY') throw e
   }
+  const edition = await publishedEdition(db, row.id)
+  if (!edition) notFound('No such story.')
+  return edition
 }
 
-/** Pairs the results table already holds: each setup against the baseline and the setup before it. */
-function comparisonsOf(analysis: AnalysisResponse | null): FigureComparison[] {
-  if (!analysis) return []
-  const rows = analysis.table.rows
-  const out: FigureComparison[] = []
-  rows.forEach((row, i) => {
-    if (row.vsBaseline) out.push({ setupId: row.setupId, vsSetupId: analysis.baselineSetupId, gains: row.vsBaseline })
-    const previous = rows[i - 1]
-    if (row.vsPrevious && previous && previous.setupId !== analysis.baselineSetupId) out.push({ setupId: row.setupId, vsSetupId: previous.setupId, gains: row.vsPrevious })
-  })
-  return out
+export async function readerSource(story: ReaderStory, db: Knex = useDb()): Promise<ReaderSource> {
+  const { row } = story
+  if (story.preview) {
+    const data = await liveStoryData(db, row)
+    return { data, hash: storyDataHash(data), text: row, edition: null }
+  }
+  const edition = await publishedEdition(db, row.id) ?? await freezeMissingEdition(db, row)
+  return { data: edition.data, hash: edition.contentHash, text: edition, edition }
 }
 
-/** The figures' numbers in another correction standard (hp and lb-ft, which inline values need). */
-export async function readerFigures(story: ReaderStory, standard: ReaderAnalysisInput['standard'], db: Knex = useDb()): Promise<Pick<StoryReaderView['figures'], 'analysis' | 'analysisProblem' | 'comparisons'>> {
-  const { analysis, problem } = await readerAnalysis(story, { units: ANALYSIS_UNITS[0].id, ...(standard ? { standard } : {}) }, db)
-  return { analysis, analysisProblem: problem, comparisons: comparisonsOf(analysis) }
+/** The story's analysis with the reader's standard and units; null with a reason when there is none. */
+export async function readerAnalysis(story: ReaderStory, query: AnalysisQueryInput, db: Knex = useDb()): Promise<{ analysis: AnalysisResponse | null, problem: string | null, source: ReaderSource }> {
+  const source = await readerSource(story, db)
+  const figures = figuresOf(source.data, source.hash, { standard: query.standard, units: query.units, photos: [] })
+  return { analysis: figures.analysis, problem: figures.analysisProblem, source }
+}
+
+/** The figures' numbers in another correction standard and units (graphs and tables; prose keeps the edition's). */
+export async function readerFigures(story: ReaderStory, query: ReaderAnalysisInput, db: Knex = useDb()): Promise<Pick<StoryReaderView['figures'], 'analysis' | 'analysisProblem' | 'comparisons'>> {
+  const { analysis, problem, source } = await readerAnalysis(story, query, db)
+  const comparisons = analysis ? figuresOf(source.data, source.hash, { standard: query.standard, units: query.units, photos: [] }).comparisons : []
+  return { analysis, analysisProblem: problem, comparisons }
 }
 
 // A published story's view is the same for every reader, and building it is most of
@@ -140,27 +145,25 @@ export async function readerView(story: ReaderStory, db: Knex = useDb()): Promis
 
 async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineStoryResponse> {
   const { row } = story
-  const benchRow = await benchTestOf(db, row.bench_test_id)
-  const benchTest = toBenchTest(benchRow)
+  const source = await readerSource(story, db)
+  const { data, text, edition } = source
   // Hero first, then the body's photos in the order the text places them: the gallery's order.
-  const photoIds = await usedPhotoIds(db, row)
-  const [bylines, tags, photos, { analysis, problem }, buildSheet, setups] = await Promise.all([
+  const [bylines, tags, photos, editions] = await Promise.all([
     magazineBylines(db, [row.id]),
     magazineTags(db, [row.id]),
-    magazinePhotos(db, photoIds),
-    readerAnalysis(story, { units: ANALYSIS_UNITS[0].id }, db),
-    getBuildSheet(db, benchTest.id),
-    listSetups(db, benchTest.id),
+    magazinePhotos(db, data.photoIds),
+    edition ? listEditions(db, row.id) : Promise.resolve([]),
   ])
+  const figures = figuresOf(data, source.hash, { photos: [...photos.values()] })
   return {
     story: {
       id: row.id,
       slug: row.slug,
-      headline: row.headline,
-      deck: row.deck,
+      headline: text.headline,
+      deck: text.deck,
       bylines: bylines.get(row.id) ?? [],
-      body: row.body,
-      heroPhoto: (row.hero_photo_id ? photos.get(row.hero_photo_id) : undefined) ?? null,
+      body: text.body,
+      heroPhoto: (row.hero_photo_id && data.photoIds.includes(row.hero_photo_id) ? photos.get(row.hero_photo_id) : undefined) ?? null,
       tags: tags.get(row.id) ?? [],
       engineFamily: row.engine_family,
       partType: row.part_type,
@@ -170,20 +173,29 @@ async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineSt
       publishedAt: row.published_at ? new Date(row.published_at).toISOString() : null,
       updatedAt: new Date(row.updated_at).toISOString(),
     },
-    benchTest: { id: benchTest.id, title: benchTest.title, shop: benchTest.shop, dyno: benchTest.dyno, testedFrom: benchTest.testedFrom, testedTo: benchTest.testedTo },
-    figures: {
-      benchTestId: benchTest.id,
-      analysis,
-      analysisProblem: problem,
-      comparisons: comparisonsOf(analysis),
-      buildSheet,
-      setups,
-      photos: [...photos.values()],
-      problems: [],
-    },
+    benchTest: data.benchTest,
+    figures: readerFiguresOnly(figures, text.body),
+    edition: edition ? editionNotice(edition, editions) : null,
     preview: story.preview,
     canonicalUrl: publicStoryUrl(row.slug),
     siteUrl: appConfig().baseUrl,
+  }
+}
+
+/** What a reader's page carries: every pair's numbers, but only the gain curves its graphs draw. */
+function readerFiguresOnly(figures: StoryFigures, body: string): StoryFigures {
+  const a = figures.analysis
+  if (!a) return figures
+  const shown = gainPairsShown(body, a)
+  return { ...figures, analysis: { ...a, gains: a.gains.filter(g => shown.has(`${g.setupId}:${g.againstSetupId}`)) } }
+}
+
+function editionNotice(edition: Edition, editions: StoryEditionSummary[]): ReaderEdition {
+  return {
+    number: edition.number,
+    publishedAt: edition.publishedAt,
+    corrections: editions.filter(e => e.publishedAt && e.correctionNote && e.number <= edition.number)
+      .map(e => ({ number: e.number, at: e.publishedAt!, note: e.correctionNote })),
   }
 }
 

@@ -2,9 +2,9 @@
 // points or its original file, and the writer's changes (exclude with a reason,
 // weather, move to another setup), each with the version read.
 import type { Knex } from 'knex'
-import { REPEATABILITY_PCT, assertWeather, type CorrectionStandard, type PowerUnit, type Problem, type TorqueUnit, type VacuumUnit } from '../../shared/dyno/index'
+import { REPEATABILITY_PCT, assertWeather, pullFactor, scalePoints, setupCurve, type CorrectionStandard, type PowerUnit, type Problem, type TorqueUnit, type VacuumUnit } from '../../shared/dyno/index'
 import type { PullDetail, PullList, PullSummary, SetupRepeatability, UpdatePullInput } from '../../shared/types/workspace'
-import { loadGridPoints, pullFactor, scalePoints, setupCurve, weatherOf, loadPullMeta } from './analysis'
+import { loadGridPoints, weatherOf, loadPullMeta } from './analysis'
 import { decodePoints } from './pull-points'
 import { bumpLiveMark } from './live-marks'
 import { httpError, invalidField, missing, staleVersion } from './workspace-http'

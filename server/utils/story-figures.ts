@@ -5,75 +5,45 @@
 import type { Knex } from 'knex'
 import type { EngineFamily, PartType } from '#shared/types/catalog'
 import type { NumberCheckResult, StoryFigures, StoryPhoto, StoryReaderView } from '#shared/types/stories'
-import type { FigureComparison } from '#shared/types/story-figures'
 import type { CurrentUser } from '#shared/types/users'
-import type { AnalysisResponse, BenchTest } from '#shared/types/workspace'
 import { checkNumbers, comparedPairs, figureCandidates, pairsNamedInBody, type CandidateSource } from '#shared/utils/number-check'
 import { figureProblems } from '#shared/utils/story-body'
+import type { SetupsUsed } from '#shared/utils/story-view'
 
 type Db = Knex | Knex.Transaction
-
-async function storyBenchTest(db: Db, benchTestId: number): Promise<BenchTest> {
-  const row = await db('bench_tests').join('users as owner', 'owner.id', 'bench_tests.owner_id')
-    .where('bench_tests.id', benchTestId).first('bench_tests.*', 'owner.display_name as owner_name')
-  if (!row) notFound('The bench test of this story is gone.')
-  return toBenchTest(row)
-}
-
-/** runAnalysis refuses (400) a bench test without usable pulls; for a story that is a state, not an error. */
-async function analysisOrProblem(db: Db, benchTest: BenchTest, baseline?: number): Promise<{ analysis: AnalysisResponse | null, problem: string | null }> {
-  try {
-    const analysis = await runAnalysis(db, benchTest, { units: 'hp-lbft', ...(baseline ? { baseline, maxPoints: 20 } : {}) })
-    return { analysis, problem: null }
-  }
-  catch (error) {
-    const status = (error as { statusCode?: number }).statusCode
-    if (status === 400) return { analysis: null, problem: (error as Error).message }
-    throw error
-  }
-}
-
-/** Gains of every analysed setup against every other, from the full curves (one analysis per reference setup). */
-async function allComparisons(db: Db, benchTest: BenchTest, main: AnalysisResponse): Promise<FigureComparison[]> {
-  const fromRows = (a: AnalysisResponse) => a.table.rows.slice(1).flatMap(r => r.vsBaseline ? [{ setupId: r.setupId, vsSetupId: a.baselineSetupId, gains: r.vsBaseline }] : [])
-  const out = fromRows(main)
-  for (const s of main.setups) {
-    if (s.setupId === main.baselineSetupId) continue
-    const { analysis } = await analysisOrProblem(db, benchTest, s.setupId)
-    if (analysis) out.push(...fromRows(analysis))
-  }
-  return out
-}
 
 export interface FigureOptions {
   /** 'bench': every photo of the bench test (the editor's picker); 'used': only those the story uses (readers). */
   photos: 'bench' | 'used'
   photoUrl?: (photoId: number, width: number) => string
+  /** The setups to take instead of the saved body's (the editor's draft names others). */
+  uses?: SetupsUsed
 }
 
+/** The story's figures from the live workspace, built exactly as an edition's would be. */
 export async function storyFigures(db: Db, row: StoryRow, opts: FigureOptions): Promise<StoryFigures> {
-  const benchTest = await storyBenchTest(db, row.bench_test_id)
-  const [{ analysis, problem }, buildSheet, setups, photoRows] = await Promise.all([
-    analysisOrProblem(db, benchTest),
-    getBuildSheet(db, benchTest.id),
-    listSetups(db, benchTest.id),
-    db('photos').where('bench_test_id', benchTest.id).orderBy('position').orderBy('id') as Promise<PhotoRecord[]>,
+  const data = await liveStoryData(db, row, opts.uses)
+  const [photoRows, live] = await Promise.all([
+    db('photos').where('bench_test_id', row.bench_test_id).orderBy('position').orderBy('id') as Promise<PhotoRecord[]>,
+    opts.photos === 'bench' ? listSetups(db, row.bench_test_id) : Promise.resolve(null),
   ])
-  const comparisons = analysis ? await allComparisons(db, benchTest, analysis) : []
-  const used = opts.photos === 'used' ? await usedPhotoIds(db, row) : null
-  const photos: StoryPhoto[] = (used ? used.map(id => photoRows.find(p => p.id === id)!).filter(Boolean) : photoRows)
-    .map(p => toStoryPhoto(p, opts.photoUrl))
+  const shownIds = opts.photos === 'used' ? data.photoIds : photoRows.map(p => p.id)
+  const photos: StoryPhoto[] = shownIds.map(id => photoRows.find(p => p.id === id)).filter(p => p !== undefined).map(p => toStoryPhoto(p, opts.photoUrl))
+  const figures = figuresOf(data, storyDataHash(data), { photos })
+  const analysed = new Set((await db('pulls').whereIn('setup_id', (live ?? data.setups).map(s => s.id)).where('included', true).distinct().pluck('setup_id')) as number[])
   const problems = figureProblems(row.body, {
-    setupIds: new Set(setups.map(s => s.id)),
-    analysedSetupIds: new Set(analysis?.setups.map(s => s.setupId) ?? []),
+    setupIds: new Set((live ?? data.setups).map(s => s.id)),
+    analysedSetupIds: analysed,
     photoIds: new Set(photoRows.map(p => p.id)),
   })
-  return { benchTestId: benchTest.id, analysis, analysisProblem: problem, comparisons, buildSheet, setups, photos, problems }
+  // The editor's picker offers every setup of the bench test; readers get only the story's.
+  const benchSetups = live?.map(s => ({ setupId: s.id, label: s.label, isBaseline: s.isBaseline, analysed: analysed.has(s.id) }))
+  return { ...figures, ...(live ? { setups: live, benchSetups } : {}), problems }
 }
 
-export async function getStoryFigures(user: CurrentUser, storyId: number): Promise<StoryFigures> {
+export async function getStoryFigures(user: CurrentUser, storyId: number, uses?: SetupsUsed): Promise<StoryFigures> {
   const db = useDb()
-  return storyFigures(db, await requireStoryRow(db, user, storyId), { photos: 'bench' })
+  return storyFigures(db, await requireStoryRow(db, user, storyId), { photos: 'bench', uses })
 }
 
 /** The number check of the story's current text; an editor opening it records it as seen for this version. */
@@ -110,11 +80,11 @@ export async function runNumberCheck(user: CurrentUser, storyId: number): Promis
 
 /** What the reader's page shows: the story's current text, its figures and only the photos it uses. */
 export async function storyReaderView(db: Db, row: StoryRow, opts: { preview: boolean, photoUrl?: (photoId: number, width: number) => string }): Promise<StoryReaderView> {
-  const [figures, summaries, benchTest] = await Promise.all([
+  const [figures, summaries] = await Promise.all([
     storyFigures(db, row, { photos: 'used', photoUrl: opts.photoUrl }),
     storySummaries(db, [row]),
-    storyBenchTest(db, row.bench_test_id),
   ])
+  const benchTest = (await liveStoryData(db, row)).benchTest
   const summary = summaries[0]!
   return {
     story: {
@@ -134,7 +104,7 @@ export async function storyReaderView(db: Db, row: StoryRow, opts: { preview: bo
       publishedAt: summary.publishedAt,
       updatedAt: summary.updatedAt,
     },
-    benchTest: { id: benchTest.id, title: benchTest.title, shop: benchTest.shop, dyno: benchTest.dyno, testedFrom: benchTest.testedFrom, testedTo: benchTest.testedTo },
+    benchTest,
     figures,
     preview: opts.preview,
   }

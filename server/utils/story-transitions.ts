@@ -103,7 +103,8 @@ export async function applyMove(trx: Knex.Transaction, row: StoryRow, move: Appl
     version: trx.raw('version + 1'),
     scheduled_at: to === 'scheduled' ? new Date(move.scheduledAt!) : null,
   }
-  if (to === 'published') patch.published_at = trx.raw('NOW(3)')
+  // A correction keeps the date the story first went live.
+  if (to === 'published' && row.state !== 'published') patch.published_at = trx.raw('NOW(3)')
   const updated = await trx('stories').where({ id: row.id, version: row.version }).update(patch)
   if (!updated) throw new Error(`story ${row.id} changed under its row lock`)
   const [transitionId] = await trx('story_transitions').insert({
@@ -115,6 +116,10 @@ export async function applyMove(trx: Knex.Transaction, row: StoryRow, move: Appl
     note: move.note,
     scheduled_at: to === 'scheduled' ? new Date(move.scheduledAt!) : null,
   })
+  // The edition: frozen on approval, put live on publishing; a correction is both at once.
+  if (move.action === 'approve') await createEdition(trx, row, move.actor?.id ?? null)
+  else if (move.action === 'publish_correction') await createEdition(trx, row, move.actor?.id ?? null, { correctionNote: move.note, publish: true })
+  else if (to === 'published') await publishLatestEdition(trx, row, move.actor?.id ?? null)
   const after = await storyById(trx, row.id)
   await writeRevision(trx, after, 'state', move.actor?.id ?? null, `${storyStateLabel(row.state)} to ${storyStateLabel(to)}`)
   await mailStateChange(trx, {

@@ -4,6 +4,7 @@
 // stays observed power rather than being recomputed from interpolated torque.
 
 import type { PullPoint } from './types'
+import { interpolateAt } from './interpolate'
 
 /** Points in ascending rpm; a copy is sorted only when the input is not. */
 export function ascending(points: readonly PullPoint[]): readonly PullPoint[] {
@@ -58,20 +59,6 @@ export function resample(points: readonly PullPoint[], stepRpm: number, fromRpm?
 
 /** One channel of a pull at any rpm inside its range, interpolated; undefined outside it. */
 export function valueAt(points: readonly PullPoint[], rpm: number, channel: 'torqueLbFt' | 'powerHp'): number | undefined {
-  const sorted = ascending(points)
-  const first = sorted[0]
-  const last = sorted[sorted.length - 1]
-  if (!first || !last || rpm < first.rpm || rpm > last.rpm) return undefined
-  let lo = 0
-  let hi = sorted.length - 1
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1
-    if ((sorted[mid]?.rpm ?? 0) <= rpm) lo = mid
-    else hi = mid
-  }
-  const a = sorted[lo]
-  const b = sorted[hi]
-  if (!a || !b) return undefined
-  if (rpm === a.rpm) return a[channel]
-  return between(a, b, rpm)[channel]
+  const sorted = ascending(points) as readonly ({ rpm: number } & Record<'torqueLbFt' | 'powerHp', number>)[]
+  return interpolateAt(sorted, rpm, channel) ?? undefined
 }

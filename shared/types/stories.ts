@@ -367,12 +367,21 @@ export interface StoryFigures {
   /** Every ordered pair of analysed setups, for gains against any setup. */
   comparisons: FigureComparison[]
   buildSheet: BuildSheet | null
-  /** Live setups with their parts (cam cards, spec box), in order. */
+  /** The story's setups with their parts (cam cards), in order; for the editor every live setup. */
   setups: Setup[]
+  /** Editor only: every setup of the bench test, for the figure picker. */
+  benchSetups?: { setupId: number, label: string, isBaseline: boolean, analysed: boolean }[]
   /** For the editor: every photo of the bench test; for readers: the photos the story uses. */
   photos: StoryPhoto[]
   /** Problems of the figures in the current body. */
   problems: FigureProblem[]
+}
+
+/** The edition a reader's page shows, with every correction published so far (oldest first). */
+export interface ReaderEdition {
+  number: number
+  publishedAt: string | null
+  corrections: { number: number, at: string, note: string }[]
 }
 
 /** What the reader's page needs, for the preview link (and the public page later). */
@@ -396,6 +405,8 @@ export interface StoryReaderView {
   }
   benchTest: { id: number, title: string, shop: string, dyno: string, testedFrom: string | null, testedTo: string | null }
   figures: StoryFigures
+  /** The published edition the page shows (null on a desk preview or preview link: the live story). */
+  edition?: ReaderEdition | null
   /** True on a preview link: the page shows a banner and is not indexed. */
   preview: boolean
 }

@@ -59,7 +59,7 @@ export interface StoryTransitionRule {
 
 const EDITORS: readonly Role[] = ['editor', 'admin']
 
-export const STORY_ACTIONS = ['submit', 'request_changes', 'approve', 'schedule', 'unschedule', 'publish_now', 'withdraw', 'reopen'] as const
+export const STORY_ACTIONS = ['submit', 'request_changes', 'approve', 'schedule', 'unschedule', 'publish_now', 'withdraw', 'reopen', 'publish_correction'] as const
 export type StoryAction = typeof STORY_ACTIONS[number]
 export const StoryActionSchema = z.enum(STORY_ACTIONS)
 
@@ -72,6 +72,9 @@ export const STORY_TRANSITIONS: readonly StoryTransitionRule[] = [
   { action: 'unschedule', label: 'Take off the schedule', from: ['scheduled'], to: 'approved', roles: EDITORS, ownStoryRoles: [], guards: [], note: 'optional', mailTo: 'writers', mailSubject: 'Story taken off the schedule' },
   { action: 'publish_now', label: 'Publish now', from: ['approved', 'scheduled'], to: 'published', roles: EDITORS, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text'], note: 'optional', mailTo: 'writers', mailSubject: 'Story published' },
   { action: 'withdraw', label: 'Withdraw', from: ['published'], to: 'withdrawn', roles: EDITORS, ownStoryRoles: [], guards: [], note: 'required', mailTo: 'writers', mailSubject: 'Story withdrawn' },
+  // A published story's text or data changed: the editor approves the new edition and
+  // it replaces the one readers see at once, with a dated note of what changed.
+  { action: 'publish_correction', label: 'Publish a correction', from: ['published'], to: 'published', roles: EDITORS, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text', 'number-check-seen'], note: 'required', mailTo: 'writers', mailSubject: 'Correction published' },
   { action: 'reopen', label: 'Back to draft', from: ['withdrawn'], to: 'draft', roles: EDITORS, ownStoryRoles: [], guards: [], note: 'optional', mailTo: 'writers', mailSubject: 'Story back to draft' },
 ]
 

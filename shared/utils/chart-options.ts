@@ -12,6 +12,7 @@ import type {
   TooltipComponentOption,
 } from 'echarts/components'
 import type { CurvePoint } from '../types/workspace'
+import { interpolateAt } from '../dyno/analyse'
 
 export type PullChartOption = ComposeOption<
   | LineSeriesOption
@@ -194,23 +195,9 @@ export function gainChartOptions(input: { curves: readonly ChartCurve[], units: 
 
 export interface ReadoutValue { id: number, label: string, styleIndex: number, power: number | null, torque: number | null }
 
-/** A curve's value at an rpm, linear between its points; null outside its range. */
+/** A curve's value at an rpm, linear between its points; null outside its range (shared/dyno's one interpolation). */
 export function curveValueAt(points: readonly CurvePoint[], rpm: number, channel: Channel): number | null {
-  if (!Number.isFinite(rpm) || points.length === 0) return null
-  let lo = 0
-  let hi = points.length - 1
-  const first = points[lo]!
-  const last = points[hi]!
-  if (rpm < first.rpm || rpm > last.rpm) return null
-  while (hi - lo > 1) {
-    const mid = (lo + hi) >> 1
-    if (points[mid]!.rpm <= rpm) lo = mid
-    else hi = mid
-  }
-  const a = points[lo]!
-  const b = points[hi]!
-  if (b.rpm === a.rpm) return a[channel]
-  return a[channel] + ((b[channel] - a[channel]) * (rpm - a.rpm)) / (b.rpm - a.rpm)
+  return interpolateAt(points, rpm, channel)
 }
 
 /** What the readout beside a graph shows at one rpm: every curve's power and torque there. */

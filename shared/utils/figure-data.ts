@@ -3,8 +3,7 @@
 // curves in which units, the gain curves against any setup, the rows of the data
 // table under each graph and the written summary for screen readers. Pure: the
 // server's SVG render, the live graph and the tables all read the same numbers.
-import { hpToKw, lbFtToNm } from '../dyno/units'
-import { ANALYSIS_GRID } from '../types/analysis'
+import { scaleCurve } from '../dyno/analyse'
 import type { AnalysisGains, AnalysisResponse, CurvePoint } from '../types/workspace'
 import { formatFigureNumber, type FigureComparison } from '../types/story-figures'
 import { curveValueAt, type ChartCurve, type ChartUnits } from './chart-options'
@@ -20,10 +19,9 @@ export function chartUnits(choice: FigureUnitChoice): ChartUnits {
   return { power: u.power, torque: u.torque }
 }
 
-/** The story's figures are in hp and lb-ft (docs/api/stories.md); kW and N-m are converted here. */
+/** The story's figures are in hp and lb-ft (docs/api/stories.md); other units by shared/dyno's one conversion. */
 export function convertPoints(points: readonly CurvePoint[], choice: FigureUnitChoice): CurvePoint[] {
-  if (choice === 'hp-lbft') return points.slice()
-  return points.map(p => ({ rpm: p.rpm, power: hpToKw(p.power), torque: lbFtToNm(p.torque) }))
+  return choice === 'hp-lbft' ? points.slice() : scaleCurve(points, choice)
 }
 
 export function clipPoints(points: readonly CurvePoint[], from?: number, to?: number): CurvePoint[] {
@@ -80,36 +78,15 @@ export function overlayCurves(analysis: Pick<AnalysisResponse, 'setups'>, setups
   })
 }
 
-/** b minus a at every step of the rpm range both cover (linear between their points). */
-export function differenceCurve(a: readonly CurvePoint[], b: readonly CurvePoint[], stepRpm: number = ANALYSIS_GRID.compareStepRpm): CurvePoint[] {
-  if (!a.length || !b.length) return []
-  const from = Math.max(a[0]!.rpm, b[0]!.rpm)
-  const to = Math.min(a[a.length - 1]!.rpm, b[b.length - 1]!.rpm)
-  const out: CurvePoint[] = []
-  for (let rpm = Math.ceil(from / stepRpm) * stepRpm; rpm <= to; rpm += stepRpm) {
-    const pa = curveValueAt(a, rpm, 'power')
-    const pb = curveValueAt(b, rpm, 'power')
-    const ta = curveValueAt(a, rpm, 'torque')
-    const tb = curveValueAt(b, rpm, 'torque')
-    if (pa === null || pb === null || ta === null || tb === null) continue
-    out.push({ rpm, power: pb - pa, torque: tb - ta })
-  }
-  return out
-}
-
 /**
- * Gain curves of setups over a baseline. Against the analysis's own baseline the
- * server's curves are used (taken from the full data); against another setup they
- * are the difference of the two drawn curves on the same 100 rpm grid.
+ * Gain curves of setups over any setup of the analysis, as shared/dyno computed them
+ * from the full curves (every ordered pair a story may draw is in analysis.gains).
  */
 export function gainCurves(analysis: Pick<AnalysisResponse, 'setups' | 'gains' | 'baselineSetupId'>, baselineId: number, setups: readonly GraphSetup[], win: CurveWindow): ChartCurve[] {
-  const base = analysis.setups.find(s => s.setupId === baselineId)
-  if (!base) return []
+  if (!analysis.setups.some(s => s.setupId === baselineId)) return []
   return setups.filter(s => s.setupId !== baselineId).flatMap((s) => {
-    const own = baselineId === analysis.baselineSetupId ? analysis.gains.find(g => g.setupId === s.setupId && g.againstSetupId === baselineId)?.curve : undefined
-    const other = analysis.setups.find(a => a.setupId === s.setupId)
-    const curve = own ?? (other ? differenceCurve(base.curve, other.curve) : [])
-    if (!curve.length) return []
+    const curve = analysis.gains.find(g => g.setupId === s.setupId && g.againstSetupId === baselineId)?.curve
+    if (!curve?.length) return []
     return [{ id: s.setupId, label: s.label, styleIndex: s.styleIndex, points: convertPoints(clipPoints(curve, win.from, win.to), win.units) }]
   })
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import type { AnalysisResponse, CurvePoint } from '#shared/types/workspace'
 import {
-  clipPoints, convertPoints, differenceCurve, gainCurves, gainSummary, graphDataTable, graphSetups, overlayCurves,
+  clipPoints, convertPoints, gainCurves, gainSummary, graphDataTable, graphSetups, overlayCurves,
   overlaySummary, resultsTableRows, signedFigure, thinCurve,
 } from '#shared/utils/figure-data'
 import { source, BASE, CAM, HEADERS } from '../stories/figure-source'
@@ -69,27 +69,18 @@ describe('curves in units and windows', () => {
 })
 
 describe('gain curves', () => {
-  it('is b minus a on the shared 100 rpm grid (linear between points)', () => {
-    const a = line(3000, 5000, 250, () => 400)
-    const b = line(3100, 5200, 50, rpm => 400 + rpm / 1000)
-    const d = differenceCurve(a, b, 100)
-    expect(d[0]!.rpm).toBe(3100)
-    expect(d.at(-1)!.rpm).toBe(5000)
-    expect(d.find(p => p.rpm === 4000)!.torque).toBeCloseTo(4, 9)
-  })
-
-  it('uses the server\'s gain curve against the analysis baseline, and works one out against any other setup', () => {
+  it('draws the gain curve shared/dyno computed for the pair, against any setup of the analysis', () => {
     const a = analysis()
     const all = graphSetups(a).setups
     const overBase = gainCurves(a, BASE, all, { units: 'hp-lbft' })
-    expect(overBase.map(c => c.id)).toEqual([CAM, HEADERS])
+    expect(overBase.map(c => c.id)).toEqual([CAM])
     expect(overBase[0]!.points.every(p => p.torque === 5)).toBe(true)
-    // Headers minus cam: 390 + x - (380 + x) = 10 lb-ft wherever both run.
-    const overCam = gainCurves(a, CAM, all, { units: 'hp-lbft' })
-    expect(overCam.map(c => c.id)).toEqual([BASE, HEADERS])
-    const headers = overCam.find(c => c.id === HEADERS)!
-    expect(headers.points[0]!.rpm).toBe(3200)
-    expect(headers.points.every(p => Math.abs(p.torque - 10) < 1e-9)).toBe(true)
+    // A pair without a computed curve is not made up from the drawn curves.
+    expect(gainCurves(a, CAM, all, { units: 'hp-lbft' })).toEqual([])
+    const withPair = { ...a, gains: [...a.gains, { setupId: HEADERS, againstSetupId: CAM, curve: [{ rpm: 4000, torque: 10, power: 7 }] }] }
+    const overCam = gainCurves(withPair, CAM, all, { units: 'hp-lbft' })
+    expect(overCam.map(c => c.id)).toEqual([HEADERS])
+    expect(overCam[0]!.points).toEqual([{ rpm: 4000, torque: 10, power: 7 }])
   })
 })
 

@@ -1,9 +1,9 @@
-// The story's figures in the reader's correction standard: every graph, table and
-// inline value of the body is drawn from these.
+// The story's figures in the reader's correction standard and units: every graph and
+// table of the page is drawn from these (the prose keeps the edition's own figures).
 export default defineEventHandler(async (event) => {
   const { slug } = await getValidatedRouterParams(event, zodParser(MagazineSlugParams))
-  const { standard } = await getValidatedQuery(event, zodParser(ReaderAnalysisQuery.pick({ standard: true })))
+  const query = await getValidatedQuery(event, zodParser(ReaderAnalysisQuery))
   const story = await findReaderStory(slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  return readerFigures(story, standard)
+  return readerFigures(story, query)
 })
