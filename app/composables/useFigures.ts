@@ -8,20 +8,27 @@ import { figureSourceOf, setupsUsed } from '#shared/utils/story-view'
  */
 export type FigureAudience = 'reader' | 'editor'
 
-interface FigureContext { figures: Ref<StoryFigures | null>, audience: FigureAudience }
+interface FigureContext {
+  /** What graphs and tables draw: the reader's chosen standard and units on a story page. */
+  figures: Ref<StoryFigures | null>
+  /** What the prose quotes: always the edition's own standard and units. */
+  prose: Ref<StoryFigures | null>
+  audience: FigureAudience
+}
 
 const FIGURES: InjectionKey<FigureContext> = Symbol('story-figures')
 
 /** The story body gives its figures to the figure components placed in it. */
-export function provideStoryFigures(figures: Ref<StoryFigures | null>, audience: FigureAudience) {
-  provide(FIGURES, { figures, audience })
+export function provideStoryFigures(figures: Ref<StoryFigures | null>, audience: FigureAudience, prose: Ref<StoryFigures | null> = figures) {
+  provide(FIGURES, { figures, prose, audience })
 }
 
 export function useStoryFigures() {
-  const ctx = inject(FIGURES, { figures: ref(null), audience: 'reader' as FigureAudience })
+  const ctx = inject(FIGURES, { figures: ref(null), prose: ref(null), audience: 'reader' as FigureAudience })
   const figures = computed(() => ctx.figures.value)
   const analysis = computed(() => figures.value?.analysis ?? null)
-  const source = computed(() => figureSource(figures.value))
+  // Inline values sit in sentences written in the edition's standard: never switched.
+  const source = computed(() => figureSource(ctx.prose.value))
   return { figures, analysis, source, audience: ctx.audience }
 }
 

@@ -39,18 +39,20 @@ export function storyDataUrl(slug: string, choice: { standard: CorrectionStandar
   return `${storyApiPath(slug, '/data.csv')}?${new URLSearchParams(choice).toString()}`
 }
 
-export const readerFiguresKey = (slug: string, standard: string) => `magazine:story-figures:${slug}:${standard}`
+export const readerFiguresKey = (slug: string, choice: string) => `magazine:story-figures:${slug}:${choice}`
 
-/** The story's figures in another correction standard; the page has its own standard's already. */
-export function useReaderFigures(slug: MaybeRefOrGetter<string>, standard: MaybeRefOrGetter<CorrectionStandard | null>) {
-  return useAsyncData<Pick<StoryFigures, 'analysis' | 'analysisProblem' | 'comparisons'> | null>(
-    () => readerFiguresKey(toValue(slug), toValue(standard) ?? 'own'),
+type SwitchedFigures = Pick<StoryFigures, 'analysis' | 'analysisProblem' | 'comparisons'>
+
+/** The story's figures in the reader's standard and units (null: the page's own are shown). */
+export function useReaderFigures(slug: MaybeRefOrGetter<string>, choice: MaybeRefOrGetter<{ standard: CorrectionStandard, units: AnalysisUnits } | null>) {
+  return useAsyncData<SwitchedFigures | null>(
+    () => readerFiguresKey(toValue(slug), toValue(choice) ? `${toValue(choice)!.standard}:${toValue(choice)!.units}` : 'own'),
     () => {
-      const chosen = toValue(standard)
+      const chosen = toValue(choice)
       const get = $fetch as (path: string, opts: { query: Record<string, string> }) => Promise<unknown>
-      return chosen ? get(storyApiPath(toValue(slug), '/figures'), { query: { standard: chosen } }) as Promise<Pick<StoryFigures, 'analysis' | 'analysisProblem' | 'comparisons'>> : Promise.resolve(null)
+      return chosen ? get(storyApiPath(toValue(slug), '/figures'), { query: chosen }) as Promise<SwitchedFigures> : Promise.resolve(null)
     },
-    { watch: [() => toValue(standard)], server: false },
+    { watch: [() => toValue(choice)], server: false },
   )
 }
 

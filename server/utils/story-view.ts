@@ -5,12 +5,13 @@
 // either by shared/utils/story-view.ts, so the desk and readers see the same numbers.
 import { createHash } from 'node:crypto'
 import type { Knex } from 'knex'
-import { STORY_DATA_FORMAT, type StoryData, type StoryEditionSummary } from '#shared/types/story-data'
+import { STORY_DATA_FORMAT, type StoryData, type StoryEditionStatus, type StoryEditionSummary } from '#shared/types/story-data'
+import type { CurrentUser } from '#shared/types/users'
 import type { StoryFigures, StoryPhoto } from '#shared/types/stories'
 import type { AnalysisUnits } from '#shared/types/analysis'
 import type { CorrectionStandard } from '#shared/dyno'
 import type { BuildSheet, Setup } from '#shared/types/workspace'
-import { canonicalJson, setupsUsed, type SetupsUsed, STORY_ROUNDING, storyFiguresFromData } from '#shared/utils/story-view'
+import { canonicalJson, movedFigures, setupsUsed, type SetupsUsed, STORY_ROUNDING, storyFiguresFromData } from '#shared/utils/story-view'
 import { LruCache } from '#shared/utils/lru-cache'
 
 type Db = Knex | Knex.Transaction
@@ -184,4 +185,32 @@ export async function publishLatestEdition(trx: Knex.Transaction, row: StoryRow,
     return
   }
   if (!latest.published_at) await trx('story_editions').where('id', latest.id).update({ published_at: trx.raw('NOW(3)') })
+}
+
+// ---------- changes since approval ----------
+
+/**
+ * The story's editions, and whether what an approval froze still holds: the live data
+ * for the approved text against the edition's, with every figure whose value moves.
+ */
+export async function storyEditionStatus(user: CurrentUser, storyId: number): Promise<StoryEditionStatus> {
+  const db = useDb()
+  const row = await requireStoryRow(db, user, storyId)
+  const [current, published, editions] = await Promise.all([latestEdition(db, row.id), publishedEdition(db, row.id), listEditions(db, row.id)])
+  if (!current) return { current: null, published: null, dataChanged: false, textChanged: false, moved: [], editions }
+  const live = await liveStoryData(db, { ...row, body: current.body })
+  const liveHash = storyDataHash(live)
+  const dataChanged = liveHash !== current.contentHash
+  const moved = dataChanged
+    ? movedFigures(current.body, figuresOf(current.data, current.contentHash, { photos: [] }), figuresOf(live, liveHash, { photos: [] }))
+    : []
+  const summary = (e: Edition | null) => (e ? editions.find(x => x.id === e.id) ?? null : null)
+  return {
+    current: summary(current),
+    published: summary(published),
+    dataChanged,
+    textChanged: current.headline !== row.headline || current.deck !== row.deck || current.body !== row.body,
+    moved,
+    editions,
+  }
 }

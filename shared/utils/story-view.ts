@@ -15,7 +15,11 @@ import { formatReported } from './figures'
 export interface SetupsUsed {
   /** Setup ids the figures name (setups, setup, vs, baseline), in order of first mention. */
   ids: number[]
-  /** A graph or table without a setup list shows every analysed setup. */
+  /**
+   * Every setup of the bench test: a graph or table without a setup list shows them
+   * all, and a text that names none is about the whole test (its prose numbers are
+   * checked against all of it).
+   */
   all: boolean
   /** The body shows the build sheet. */
   buildSheet: boolean
@@ -38,7 +42,7 @@ export function setupsUsed(body: string): SetupsUsed {
     if (TAKES_SETUPS.has(use.name) && !idsOf(o.setups).length) all = true
     ids.push(...idsOf(o.setups), ...idsOf(o.setup), ...idsOf(o.vs), ...idsOf(o.baseline))
   }
-  return { ids: [...new Set(ids)], all, buildSheet }
+  return { ids: [...new Set(ids)], all: all || ids.length === 0, buildSheet }
 }
 
 export interface FigureSettings {

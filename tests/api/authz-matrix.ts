@@ -160,6 +160,7 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'PATCH /api/stories/:id': { expect: OWNER, path: st, body: () => ({ version: 999_999, autosave: true, deck: 'Matrix' }) },
   'GET /api/stories/:id/figures': { expect: OWNER, path: f => `${st(f)}/figures` },
   'GET /api/stories/:id/figures/:number/print': { expect: OWNER, path: f => `${st(f)}/figures/1/print?format=svg&columns=one` },
+  'GET /api/stories/:id/edition': { expect: OWNER, path: f => `${st(f)}/edition` },
   'DELETE /api/stories/:id/lock': { expect: OWNER, path: f => `${st(f)}/lock` },
   'POST /api/stories/:id/lock': { expect: OWNER, path: f => `${st(f)}/lock`, body: () => ({}) },
   'PATCH /api/stories/:id/notes/:noteId': { expect: OWNER, path: f => `${st(f)}/notes/${f.noteId}`, body: () => ({ resolved: false }) },

@@ -114,8 +114,16 @@ describe('download the data', () => {
       const res = await fetch(`${new Client().base}/api/magazine/stories/${slugs.published}/data.csv${query}`)
       expect(res.status).toBe(200)
       expect(res.headers.get('content-type')).toMatch(/^text\/csv/)
-      expect(res.headers.get('content-disposition')).toContain(`${slugs.published}-results.csv`)
-      const [header, ...rows] = csvRows(await res.text())
+      expect(res.headers.get('content-disposition')).toContain(`${slugs.published}-data.csv`)
+      const all = csvRows(await res.text())
+      // The standard, the pulls with their weather, the curves, then the results table.
+      expect(all[1]).toEqual(['Corrected to', analysis.standardLabel])
+      const pulls = all.slice(all.findIndex(r => r[0] === 'Pulls') + 2, all.findIndex(r => /^Averaged curves/.test(r[0] ?? '')))
+      expect(pulls).toHaveLength(analysis.setups.reduce((n: number, s: any) => n + s.pulls.length, 0))
+      expect(pulls.every(p => Number(p[3]) > 25 && Number(p[7]) > 0.8)).toBe(true)
+      const curves = all.slice(all.findIndex(r => /^Averaged curves/.test(r[0] ?? '')) + 1)
+      expect(curves[0]).toEqual(['rpm', ...analysis.setups.flatMap((s: any) => [`${s.label} power (${analysis.units.power})`, `${s.label} torque (${analysis.units.torque})`])])
+      const [header, ...rows] = all.slice(all.findIndex(r => r[0] === 'Results') + 1)
       expect(header![2]).toBe(`Peak power (${analysis.units.power})`)
       expect(header!.at(-1)).toBe('Values rounded as on the page (half away from zero)')
       expect(rows).toHaveLength(analysis.table.rows.length)
@@ -132,9 +140,12 @@ describe('download the data', () => {
 
   it('defuses a setup label that a spreadsheet would run as a formula', async () => {
     // OWASP "CSV Injection" (secondary): cells starting with = + - @ are prefixed so they stay text.
+    // The download is the edition's: the label is frozen when the story is approved.
     await testDb()('setups').where({ id: bench.camId }).update({ label: '=HYPERLINK("x")' })
     try {
-      const res = await fetch(`${new Client().base}/api/magazine/stories/${slugs.published}/data.csv?units=kw-nm`)
+      const story = await createStory(editor, bench.benchTestId, { body: storyBody(bench) })
+      await publish(story.id)
+      const res = await fetch(`${new Client().base}/api/magazine/stories/${story.slug}/data.csv?units=kw-nm`)
       const rows = csvRows(await res.text())
       expect(rows.map(r => r[0])).toContain('\'=HYPERLINK("x")')
     }
@@ -260,6 +271,9 @@ describe('the page cache', () => {
     const story = expectOk(await editor.get(`/api/stories/${(await testDb()('stories').where({ slug: slugs.published }).first('id')).id}`)).story
     const headline = `Edited ${word}`
     expectOk(await editor.patch(`/api/stories/${story.id}`, { version: story.version, headline }))
+    // An edit reaches readers only as a corrected edition (issue 13).
+    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
+    expectOk(await transition(editor, story.id, 'publish_correction', { note: 'New headline.' }))
     // Every app server polls the stories table every 2 s (server/plugins/page-cache.ts).
     let html = ''
     for (let i = 0; i < 20 && !html.includes(headline); i++) {

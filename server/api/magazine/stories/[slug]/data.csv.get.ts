@@ -1,10 +1,11 @@
-// "Download the data": the results table as the page shows it, as CSV.
+// "Download the data": from the edition readers see, everything needed to redo the
+// analysis (pulls and weather, averaged and corrected curves, the results table).
 export default defineEventHandler(async (event) => {
   const { slug } = await getValidatedRouterParams(event, zodParser(MagazineSlugParams))
   const query = await getValidatedQuery(event, zodParser(ReaderAnalysisQuery))
   const story = await findReaderStory(slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  const { analysis, problem } = await readerAnalysis(story, query)
+  const { analysis, problem, source } = await readerAnalysis(story, query)
   if (!analysis) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: problem ?? 'This story has no data.' })
-  return sendCsvFile(event, `${slug}-results.csv`, analysisCsv(analysis))
+  return sendCsvFile(event, `${slug}-data.csv`, storyDataCsv(source.data, analysis))
 })

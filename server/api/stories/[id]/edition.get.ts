@@ -1,0 +1,7 @@
+import type { StoryEditionStatus } from '#shared/types/story-data'
+
+// The story's editions and whether the data its figures use moved since the last approval.
+export default defineEventHandler(async (event): Promise<StoryEditionStatus> => {
+  const { user, params } = await requireStoryRoute(event)
+  return storyEditionStatus(user, params.id)
+})
