@@ -48,6 +48,11 @@ describe('a reader on a story', () => {
   it('reads the graph, toggles a setup, switches units and standard, and downloads the data', async () => {
     const { page } = browser
     await page.goto(`/stories/${slug}`)
+    // The prose's inline value and the note near the first figure: the edition's own standard.
+    const prose = page.getByTestId('figure-value').first()
+    const proseText = await prose.textContent()
+    expect(proseText).toMatch(/\d hp|within repeatability/)
+    await expect(page.getByTestId('story-edition-note').textContent()).resolves.toContain('Figures in the text are corrected to SAE J1349')
     const graph = page.getByTestId('figure-graph').first()
     await graph.scrollIntoViewIfNeeded()
     await page.locator('[data-testid="figure-graph"][data-live="true"]').first().waitFor({ timeout: 20_000 })
@@ -93,13 +98,19 @@ describe('a reader on a story', () => {
     await data.getByTestId('standard-switch').selectOption('din-70020')
     await expect.poll(() => data.getByTestId('story-results').getAttribute('data-standard')).toBe('din-70020')
     await expect.poll(() => graph.locator('figcaption').textContent()).toContain('DIN 70020')
+    // One page-level switch: the body's results table follows in standard and units, the prose never.
+    const bodyTable = page.getByTestId('figure-results-table').first()
+    await expect.poll(() => bodyTable.textContent()).toContain('DIN 70020')
+    await expect.poll(() => bodyTable.textContent()).toContain('kW')
+    expect(await prose.textContent()).toBe(proseText)
+    await expect(page.getByTestId('story-edition-note').textContent()).resolves.toContain('now show DIN 70020')
 
     const [download] = await Promise.all([page.waitForEvent('download'), data.getByTestId('download-data').click()])
     const csv = readFileSync((await download.path())!, 'utf8')
-    const header = csv.split(/\r?\n/)[0]!
-    expect(header).toContain('Peak power (kW)')
-    expect(csv).toContain('DIN 70020')
-    expect(download.suggestedFilename()).toBe(`${slug}-results.csv`)
+    expect(csv.split(/\r?\n/)[1]).toContain('DIN 70020')
+    expect(csv).toContain('Peak power (kW)')
+    expect(csv).toContain('Averaged curves')
+    expect(download.suggestedFilename()).toBe(`${slug}-data.csv`)
 
     await page.reload()
     await expect.poll(() => page.getByTestId('units-switch').inputValue()).toBe('kw-nm')
