@@ -36,6 +36,9 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   nitro: {
     experimental: { tasks: true },
+    // Built assets ship with .br and .gz beside them, served by Accept-Encoding;
+    // pages and data are compressed by server/plugins/page-cache.ts.
+    compressPublicAssets: { brotli: true, gzip: true },
     // Photos are sized in worker threads by server/workers/photo-worker.mjs, which
     // the bundle never imports: ship its packages and copy it beside the server.
     externals: { traceInclude: [fileURLToPath(new URL('./server/workers/photo-worker.mjs', import.meta.url))] },

@@ -15,6 +15,8 @@ export interface LocalEnv {
   db: { port: number, name: string, user: string, password: string, dataDir: string, socket: string }
   s3: { port: number, bucket: string, dataDir: string }
   smtp: { port: number, mailDir: string }
+  /** Used when PAGE_CACHE=redis: the shared page cache (scripts/lib/redis.ts). */
+  redis: { port: number, dataDir: string }
   app: { port: number, host: string, baseUrl: string }
   sessionPassword: string
 }
@@ -50,12 +52,13 @@ export function localEnv(profile: Profile): LocalEnv {
   const secrets = loadSecrets(dataDir)
   const dbDir = join(dataDir, 'mariadb')
   const appPort = test ? intFromEnv('TEST_PORT', 3010) : intFromEnv('PORT', 3000)
+  const dbPort = test ? intFromEnv('TEST_DB_PORT', 3317) : intFromEnv('DB_PORT', 3307)
   const host = process.env.HOST ?? '127.0.0.1'
   return {
     profile,
     dataDir,
     db: {
-      port: test ? intFromEnv('TEST_DB_PORT', 3317) : intFromEnv('DB_PORT', 3307),
+      port: dbPort,
       name: 'pullsheet',
       user: 'pullsheet',
       password: secrets.dbPassword,
@@ -71,6 +74,8 @@ export function localEnv(profile: Profile): LocalEnv {
       port: test ? intFromEnv('TEST_SMTP_PORT', 2535) : intFromEnv('SMTP_PORT', 2525),
       mailDir: join(dataDir, 'mail'),
     },
+    // Beside the database's port unless set, so worktrees with their own ports never share one.
+    redis: { port: test ? intFromEnv('TEST_REDIS_PORT', dbPort + 2900) : intFromEnv('REDIS_PORT', dbPort + 2900), dataDir: join(dataDir, 'redis') },
     app: { port: appPort, host, baseUrl: `http://${host}:${appPort}` },
     sessionPassword: process.env.NUXT_SESSION_PASSWORD ?? secrets.sessionPassword,
   }
@@ -98,5 +103,10 @@ export function serverEnv(env: LocalEnv): Record<string, string> {
     MAIL_CATCHER_DIR: env.smtp.mailDir,
     NUXT_SESSION_PASSWORD: env.sessionPassword,
     NUXT_SESSION_COOKIE_SECURE: env.app.baseUrl.startsWith('https:') ? 'true' : 'false',
+    ...(process.env.PAGE_CACHE === 'redis' ? { PAGE_CACHE: 'redis', REDIS_URL: redisUrl(env) } : {}),
   }
+}
+
+export function redisUrl(env: LocalEnv): string {
+  return `redis://127.0.0.1:${env.redis.port}`
 }

@@ -3,6 +3,7 @@ import { join } from 'node:path'
 import type { LocalEnv } from './env'
 import { ROOT } from './env'
 import { startMariadb, stopMariadb } from './mariadb'
+import { startRedis } from './redis'
 import { killGroup, portOpen, startDetached, waitFor } from './proc'
 
 export interface RunningServices { stop: () => Promise<void> }
@@ -30,8 +31,11 @@ export async function startServices(env: LocalEnv): Promise<RunningServices> {
   const mail = await ensureTsService('mail', 'mail-catcher.ts', env.smtp.port, {
     SMTP_PORT: String(env.smtp.port), MAIL_DIR: env.smtp.mailDir,
   })
+  // PAGE_CACHE=redis: the page cache shared by app servers, in a private redis-server.
+  const redis = process.env.PAGE_CACHE === 'redis' ? await startRedis(env) : undefined
   return {
     async stop() {
+      if (redis) await killGroup(redis)
       if (mail) await killGroup(mail)
       if (s3) await killGroup(s3)
       if (startedDb) await stopMariadb(env.db)

@@ -6,12 +6,13 @@
 export default defineNitroPlugin((nitroApp) => {
   nitroApp.hooks.hook('request', (event) => {
     event.context.renderData = {
-      currentUser: () => getCurrentUser(event),
+      // The database being away is a 503 for the page, as it is for the API.
+      currentUser: () => getCurrentUser(event).catch((error) => { throw outageAs503(error) }),
       readerStory: async (slug) => {
         // The route's own parameter check; a malformed slug is simply no story here.
         const params = MagazineSlugParams.safeParse({ slug })
         if (!params.success) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'No such story.' })
-        return readerStoryFor(event, params.data.slug)
+        return readerStoryFor(event, params.data.slug).catch((error) => { throw outageAs503(error) })
       },
       siteTimeZone: async () => (await getSiteSettings()).timeZone,
     }

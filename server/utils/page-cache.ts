@@ -1,31 +1,120 @@
-// Whole responses for readers who are not signed in, held as Buffers (a string
-// with non-ASCII characters is re-encoded on every send). Only the reader's own
-// routes are eligible, only without a session cookie, only 200s: drafts, previews
-// and signed-in views never enter. Each app server keeps its own; they all drop
-// it when the stories table changes (server/plugins/page-cache.ts polls for that),
-// so publish, withdraw and edit reach every server within a few seconds.
+// Whole responses for readers who are not signed in, kept with their Brotli and gzip
+// variants so a hit costs no compression. Only the reader's own routes are eligible,
+// only without a session cookie, only 200s: drafts, previews, signed-in views and
+// pages rendered during an outage never enter.
+//
+// Where they are kept (PAGE_CACHE): "memory" (the default) holds Buffers in this
+// process, and each app server polls the stories to drop its own copy
+// (server/plugins/page-cache.ts); "redis" keeps one copy for every app server in a
+// shared Redis (REDIS_URL) through Nitro's storage layer, so dropping it once drops
+// it everywhere (page-cache-redis.ts).
+import { createHash } from 'node:crypto'
+import type { Encoding } from './compression'
+
 export interface CachedPage {
-  body: Buffer
   status: number
   headers: Record<string, string>
+  /** Weak validator of the page's bytes, the same for every encoding of them. */
+  etag: string
   storedAt: number
   /** The story slug this response shows, when it is about one story. */
   slug: string | null
+  identity: Buffer
+  /** Absent when the body is too small or not text. */
+  encoded: Partial<Record<Encoding, Buffer>>
+}
+
+export interface PageStore {
+  /** slug: as pageCacheKeyFor named it (a shared store groups keys by story). */
+  get(key: string, slug: string | null): Promise<CachedPage | undefined>
+  set(key: string, page: CachedPage): Promise<void>
+  /** Drop one story's pages and every list, or everything when no slug is given. */
+  drop(slug?: string): Promise<void>
 }
 
 export const PAGE_CACHE_TTL_MS = 10 * 60 * 1000
-const KEPT_HEADERS = ['content-type', 'content-security-policy', 'cache-control', 'content-disposition', 'x-robots-tag']
+export const KEPT_HEADERS = ['content-type', 'content-security-policy', 'cache-control', 'content-disposition', 'x-robots-tag']
+
+// What a shared cache (nginx, a CDN) may do with a reader's page: keep it a minute,
+// then serve the old copy for up to ten more while one request fetches the new one.
+// Browsers revalidate every time (max-age=0) and get a 304 when nothing changed.
+export const PUBLIC_CACHE_CONTROL = 'public, max-age=0, s-maxage=60, stale-while-revalidate=600'
+export const PRIVATE_CACHE_CONTROL = 'private, no-store'
+
+export function etagOf(body: Buffer): string {
+  return `W/"${createHash('sha1').update(body).digest('base64url').slice(0, 22)}"`
+}
+
+/** True when an If-None-Match header names this validator (or "*"). */
+export function etagMatches(ifNoneMatch: string | undefined, etag: string): boolean {
+  if (!ifNoneMatch) return false
+  const bare = (tag: string) => tag.trim().replace(/^W\//, '')
+  return ifNoneMatch.split(',').some(tag => tag.trim() === '*' || bare(tag) === bare(etag))
+}
 
 const MAX_BYTES = 64 * 1024 * 1024
-// Insertion order is age order: the oldest entries go first when the bound is reached.
-const pages = new Map<string, CachedPage>()
-let heldBytes = 0
 
-function forget(key: string): void {
-  const page = pages.get(key)
-  if (!page) return
-  pages.delete(key)
-  heldBytes -= page.body.byteLength
+const bytesOf = (page: CachedPage) => page.identity.byteLength + (page.encoded.br?.byteLength ?? 0) + (page.encoded.gzip?.byteLength ?? 0)
+
+/** One process's copy; insertion order is age order, the oldest go first past the bound. */
+export class MemoryPageStore implements PageStore {
+  private pages = new Map<string, CachedPage>()
+  private heldBytes = 0
+
+  // Synchronous on purpose: a hit is served without a trip through the microtask queue.
+  peek(key: string, now = Date.now()): CachedPage | undefined {
+    const page = this.pages.get(key)
+    if (page && now - page.storedAt > PAGE_CACHE_TTL_MS) {
+      this.forget(key)
+      return undefined
+    }
+    return page
+  }
+
+  async get(key: string): Promise<CachedPage | undefined> {
+    return this.peek(key)
+  }
+
+  async set(key: string, page: CachedPage): Promise<void> {
+    const bytes = bytesOf(page)
+    if (bytes > MAX_BYTES / 16) return
+    this.forget(key)
+    this.pages.set(key, page)
+    this.heldBytes += bytes
+    for (const oldest of this.pages.keys()) {
+      if (this.heldBytes <= MAX_BYTES) break
+      this.forget(oldest)
+    }
+  }
+
+  async drop(slug?: string): Promise<void> {
+    // Lists are few and cheap to render again; one story's pages are the ones worth keeping.
+    for (const [key, page] of [...this.pages]) {
+      if (!slug || page.slug === null || page.slug === slug) this.forget(key)
+    }
+  }
+
+  get size(): number {
+    return this.pages.size
+  }
+
+  private forget(key: string): void {
+    const page = this.pages.get(key)
+    if (!page) return
+    this.pages.delete(key)
+    this.heldBytes -= bytesOf(page)
+  }
+}
+
+let store: PageStore = new MemoryPageStore()
+
+/** Where pages are kept; server/plugins/page-cache.ts switches to Redis when configured. */
+export function usePageStore(): PageStore {
+  return store
+}
+
+export function setPageStore(next: PageStore): void {
+  store = next
 }
 
 // Paths whose answer is the same for every anonymous reader.
@@ -37,12 +126,14 @@ const ELIGIBLE: { pattern: RegExp, slug?: number }[] = [
   { pattern: /^\/(browse\/(engine|part)|tags)\/[^/]+\/?$/ },
   { pattern: /^\/search\/?$/ },
   { pattern: /^\/(feed|sitemap)\.xml$/ },
+  // The site's own pages from content/ (the staff collection is not among them).
+  { pattern: /^\/(how-we-test|cautions|about)\/?$/ },
   // Not the social card: it has its own caches and answers If-None-Match (figure-export/social-card.ts).
   { pattern: /^\/api\/magazine\/stories\/([a-z0-9-]+)(\/(?!card\.png$)[a-z.-]+)?$/, slug: 1 },
   { pattern: /^\/api\/magazine\/(home|latest|search|engine\/[^/]+|part\/[^/]+|tags\/[^/]+)$/ },
 ]
 
-function hasSession(cookie: string): boolean {
+export function hasSession(cookie: string): boolean {
   return cookie.split(';').some(part => /^\s*pullsheet-session=[^;\s]/.test(part))
 }
 
@@ -61,31 +152,14 @@ export function pageCacheKeyFor(method: string, path: string, cookie: string): {
   return null
 }
 
-export function cachedPage(key: string, now = Date.now()): CachedPage | undefined {
-  const page = pages.get(key)
-  if (page && now - page.storedAt > PAGE_CACHE_TTL_MS) {
-    forget(key)
-    return undefined
-  }
-  return page
-}
-
-export function storePage(key: string, slug: string | null, status: number, headers: Record<string, unknown>, body: string | Buffer): void {
-  if (status !== 200) return
+/** Only the headers that describe the body; the rest are set per answer. */
+export function keptHeaders(headers: Record<string, unknown>): Record<string, string> {
   const kept: Record<string, string> = {}
   for (const name of KEPT_HEADERS) {
     const value = headers[name]
     if (typeof value === 'string') kept[name] = value
   }
-  const bytes = typeof body === 'string' ? Buffer.from(body) : body
-  if (bytes.byteLength > MAX_BYTES / 16) return
-  forget(key)
-  pages.set(key, { body: bytes, status, headers: kept, storedAt: Date.now(), slug })
-  heldBytes += bytes.byteLength
-  for (const oldest of pages.keys()) {
-    if (heldBytes <= MAX_BYTES) break
-    forget(oldest)
-  }
+  return kept
 }
 
 /**
@@ -93,12 +167,9 @@ export function storePage(key: string, slug: string | null, status: number, head
  * since a publish, withdraw or edit can change them all. Call it after the
  * transaction that changed the story has committed.
  */
-export function invalidateStoryCache(slug?: string): void {
-  // Lists are few and cheap to render again; one story's pages are the ones worth keeping.
-  for (const [key, page] of [...pages]) {
-    if (!slug || page.slug === null || page.slug === slug) forget(key)
-  }
+export async function invalidateStoryCache(slug?: string): Promise<void> {
   for (const listener of droppedListeners) listener(slug)
+  await store.drop(slug)
 }
 
 const droppedListeners = new Set<(slug?: string) => void>()
@@ -106,8 +177,4 @@ const droppedListeners = new Set<(slug?: string) => void>()
 /** Other per-process caches of story data (the reader's view) are dropped with the pages. */
 export function onStoryCacheDropped(listener: (slug?: string) => void): void {
   droppedListeners.add(listener)
-}
-
-export function pageCacheSize(): number {
-  return pages.size
 }

@@ -1,7 +1,8 @@
 // What the page cache may keep: anonymous GETs of the reader's own routes only,
 // keyed with a normalised query; invalidation drops one story and every list.
 import { describe, expect, it } from 'vitest'
-import { cachedPage, invalidateStoryCache, pageCacheKeyFor, storePage } from '../../../server/utils/page-cache'
+import { type CachedPage, MemoryPageStore, etagMatches, etagOf, pageCacheKeyFor } from '../../../server/utils/page-cache'
+import { packPage, unpackPage } from '../../../server/utils/page-cache-redis'
 
 describe('pageCacheKeyFor', () => {
   it.each([
@@ -37,25 +38,49 @@ describe('pageCacheKeyFor', () => {
   })
 })
 
-describe('storePage and invalidateStoryCache', () => {
-  it('keeps 200s only, and drops the story and the lists but not other stories', () => {
-    storePage('/stories/a?', 'a', 200, { 'content-type': 'text/html' }, '<p>a</p>')
-    storePage('/stories/b?', 'b', 200, { 'content-type': 'text/html' }, '<p>b</p>')
-    storePage('/?', null, 200, { 'content-type': 'text/html' }, '<p>home</p>')
-    storePage('/stories/c?', 'c', 404, {}, 'gone')
-    expect(cachedPage('/stories/a?')?.body.toString()).toBe('<p>a</p>')
-    expect(cachedPage('/stories/a?')?.headers).toEqual({ 'content-type': 'text/html' })
-    expect(cachedPage('/stories/c?')).toBeUndefined()
-    invalidateStoryCache('a')
-    expect(cachedPage('/stories/a?')).toBeUndefined()
-    expect(cachedPage('/?')).toBeUndefined()
-    expect(cachedPage('/stories/b?')).toBeDefined()
-    invalidateStoryCache()
-    expect(cachedPage('/stories/b?')).toBeUndefined()
+const page = (slug: string | null, body: string, storedAt = Date.now()): CachedPage => ({
+  status: 200, headers: { 'content-type': 'text/html' }, etag: etagOf(Buffer.from(body)), storedAt, slug, identity: Buffer.from(body), encoded: {},
+})
+
+describe('MemoryPageStore', () => {
+  it('drops the story and the lists but not other stories', async () => {
+    const store = new MemoryPageStore()
+    await store.set('/stories/a?', page('a', '<p>a</p>'))
+    await store.set('/stories/b?', page('b', '<p>b</p>'))
+    await store.set('/?', page(null, '<p>home</p>'))
+    expect(store.peek('/stories/a?')?.identity.toString()).toBe('<p>a</p>')
+    await store.drop('a')
+    expect(store.peek('/stories/a?')).toBeUndefined()
+    expect(store.peek('/?')).toBeUndefined()
+    expect(store.peek('/stories/b?')).toBeDefined()
+    await store.drop()
+    expect(store.size).toBe(0)
   })
 
-  it('forgets an entry after its lifetime', () => {
-    storePage('/stories/old?', 'old', 200, {}, 'x')
-    expect(cachedPage('/stories/old?', Date.now() + 11 * 60 * 1000)).toBeUndefined()
+  it('forgets an entry after its lifetime', async () => {
+    const store = new MemoryPageStore()
+    await store.set('/stories/old?', page('old', 'x'))
+    expect(store.peek('/stories/old?', Date.now() + 11 * 60 * 1000)).toBeUndefined()
+  })
+})
+
+describe('packPage (the shared store\'s value)', () => {
+  it('gives back the same head and bodies', () => {
+    const original = { ...page('a', '<p>ä</p>'), encoded: { br: Buffer.from([1, 2, 3]), gzip: Buffer.from([4, 5]) } }
+    const back = unpackPage(packPage(original))
+    expect(back).toEqual(original)
+    expect(unpackPage(packPage(page(null, 'plain'))).encoded).toEqual({})
+  })
+})
+
+describe('ETags', () => {
+  it('match a copy of the same bytes, weak or not, and not other bytes', () => {
+    const tag = etagOf(Buffer.from('<p>a</p>'))
+    expect(tag).toMatch(/^W\/"[\w-]{22}"$/)
+    expect(etagMatches(tag, tag)).toBe(true)
+    expect(etagMatches(`"x", ${tag.slice(2)}`, tag)).toBe(true)
+    expect(etagMatches('*', tag)).toBe(true)
+    expect(etagMatches(etagOf(Buffer.from('<p>b</p>')), tag)).toBe(false)
+    expect(etagMatches(undefined, tag)).toBe(false)
   })
 })
