@@ -7,7 +7,7 @@ import { migrate, seed } from '../scripts/lib/database'
 import { localEnv, serverEnv } from '../scripts/lib/env'
 import { killGroup } from '../scripts/lib/proc'
 import { startServices } from '../scripts/lib/services'
-import { Client, signedIn } from '../tests/support/http'
+import { Client, DEMO_PASSWORD } from '../tests/support/http'
 import { expectOk } from '../tests/support/workspace'
 import { createStory, storyBench, transition } from '../tests/support/stories'
 
@@ -28,7 +28,12 @@ export async function readerFixture(): Promise<ReaderFixture> {
     await services.stop()
   }
   try {
-    process.env.TEST_BASE_URL = testEnv.app.baseUrl
+    // The test client's default address is read when it is imported: name this profile's.
+    const signedIn = async (email: string) => {
+      const client = new Client(testEnv.app.baseUrl)
+      expectOk(await client.post('/api/auth/login', { email, password: DEMO_PASSWORD }))
+      return client
+    }
     const editor = await signedIn('editor@example.com')
     const bench = await storyBench(editor)
     const pair = `${bench.baselineId},${bench.camId}`
@@ -45,7 +50,7 @@ export async function readerFixture(): Promise<ReaderFixture> {
     expectOk(await transition(editor, story.id, 'approve'))
     expectOk(await transition(editor, story.id, 'publish_now'))
     const reader = await signedIn('reader@example.com')
-    return { base: new Client().base, slug: story.slug, readerCookie: reader.cookie, stop }
+    return { base: testEnv.app.baseUrl, slug: story.slug, readerCookie: reader.cookie, stop }
   }
   catch (e) {
     await stop()

@@ -7,10 +7,10 @@
 // Prints requests/s, p50/p95/p99, errors and the server's memory (VmRSS); figures go
 // into docs/bench/load.md.
 import { readFileSync } from 'node:fs'
-import autocannon from 'autocannon'
 import { signedIn } from '../../tests/support/http'
 import { createStory, storyBench, storyBody, transition } from '../../tests/support/stories'
 import { expectOk } from '../../tests/support/workspace'
+import { wrk } from '../wrk'
 import { withTestStack } from './stack'
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 60)
@@ -19,53 +19,11 @@ const WRITERS = Number(process.env.BENCH_WRITERS ?? 6)
 /** Autosaves per second over all writers: far above typing pace, to load the write path. */
 const AUTOSAVE_RATE = Number(process.env.BENCH_AUTOSAVE_RATE ?? 30)
 
-interface Ctx { storyId?: number, version?: number }
-interface RequestSpec {
-  method?: string
-  path: string
-  headers?: Record<string, string>
-  setupRequest?: (req: RequestSpec & { body?: string }, context: Ctx) => RequestSpec & { body?: string }
-  onResponse?: (status: number, body: string, context: Ctx) => void
-}
-interface Instance { on: (event: 'response', fn: (client: unknown, status: number, bytes: number, ms: number) => void) => void }
-interface Summary { requests: { average: number, total: number }, non2xx: number, errors: number, timeouts: number, statusCodeStats?: Record<string, { count: number }> }
-type Start = (opts: Record<string, unknown>, done: (err: Error | null, result: Summary) => void) => Instance
-
-function percentile(sorted: number[], p: number): number {
-  if (!sorted.length) return Number.NaN
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)]!
-}
+const lua = (s: string) => JSON.stringify(s) // a JSON string literal is a valid Lua one for our text
 
 function rssMb(pid: number): number {
   const line = readFileSync(`/proc/${pid}/status`, 'utf8').split('\n').find(l => l.startsWith('VmRSS:'))!
   return Number(line.replace(/\D+/g, '')) / 1024
-}
-
-function load(name: string, opts: Record<string, unknown>) {
-  const latencies: number[] = []
-  const statuses = new Map<number, number>()
-  const done = new Promise<Summary>((resolve, reject) => {
-    const instance = (autocannon as unknown as Start)({ duration: SECONDS, ...opts }, (err, result) => (err ? reject(err) : resolve(result)))
-    instance.on('response', (_client, status, _bytes, ms) => {
-      latencies.push(ms)
-      statuses.set(status, (statuses.get(status) ?? 0) + 1)
-    })
-  })
-  return done.then((summary) => {
-    const sorted = latencies.sort((a, b) => a - b)
-    return {
-      name,
-      requests: sorted.length,
-      perSecond: sorted.length / SECONDS,
-      p50: percentile(sorted, 50),
-      p95: percentile(sorted, 95),
-      p99: percentile(sorted, 99),
-      non2xx: summary.non2xx,
-      errors: summary.errors,
-      timeouts: summary.timeouts,
-      statuses: Object.fromEntries(statuses),
-    }
-  })
 }
 
 await withTestStack(async (vars, pid) => {
@@ -90,48 +48,53 @@ await withTestStack(async (vars, pid) => {
   // Warm the page cache and the analysis cache the way the first reader would.
   for (const path of [`/stories/${published.slug}`, `/api/magazine/stories/${published.slug}/data.csv`]) await fetch(base + path)
 
-  const free = drafts.map(d => ({ ...d }))
   const origin = new URL(base).origin
-  const readers = load('readers', {
-    url: base,
+  // Readers go round four addresses, as browsers do (Brotli accepted).
+  const readerPaths = [
+    [`/stories/${published.slug}`, 'text/html'],
+    ['/api/magazine/search?q=cam', 'application/json'],
+    [`/api/magazine/stories/${published.slug}/data.csv`, 'text/csv'],
+    ['/search?q=long-duration', 'text/html'],
+  ]
+  const readers = wrk(base, {
     connections: READER_CONNECTIONS,
-    requests: [
-      { path: `/stories/${published.slug}`, headers: { accept: 'text/html' } },
-      { path: '/api/magazine/search?q=cam' },
-      { path: `/api/magazine/stories/${published.slug}/data.csv` },
-      { path: `/search?q=long-duration`, headers: { accept: 'text/html' } },
-    ] satisfies RequestSpec[],
-  })
-  const writers = load('writers autosaving', {
-    url: base,
+    seconds: SECONDS,
+    headers: { 'accept-encoding': 'gzip, deflate, br' },
+    lua: `
+local paths = { ${readerPaths.map(([path, accept]) => `{ ${lua(path!)}, ${lua(accept!)} }`).join(', ')} }
+local n = 0
+request = function()
+  n = n + 1
+  local p = paths[(n % #paths) + 1]
+  return wrk.format("GET", p[1], { accept = p[2] })
+end`,
+  }).then(r => ({ name: 'readers', ...r }))
+  // Each writer thread owns one draft and saves it with the version its last save returned
+  // (or the current one a 409 names); delay() paces all of them to AUTOSAVE_RATE.
+  const writers = wrk(base, {
     connections: WRITERS,
-    overallRate: AUTOSAVE_RATE,
-    requests: [{
-      method: 'PATCH',
-      path: '/api/stories/0',
-      headers: { 'content-type': 'application/json', 'cookie': writer.cookie, origin },
-      // autocannon resets a connection's context after each pass over `requests`,
-      // so a draft and its version live in a pool: taken for a save, put back with the
-      // version the save returned (or the current one a 409 names).
-      setupRequest: (req, context) => {
-        // An empty pool would mean a request was built twice; then a save may go stale (409, counted).
-        const draft = free.shift() ?? { ...drafts[0]! }
-        context.storyId = draft.id
-        context.version = draft.version
-        const text = `${storyBody(writerBench)}\n\nTyped at ${Date.now()}.`
-        return { ...req, path: `/api/stories/${draft.id}`, body: JSON.stringify({ version: draft.version, autosave: true, body: text }) }
-      },
-      onResponse: (status, body, context) => {
-        let version = context.version!
-        try {
-          const parsed = JSON.parse(body) as { story?: { version: number }, data?: { currentVersion?: number } }
-          version = parsed.story?.version ?? parsed.data?.currentVersion ?? version
-        }
-        catch { /* keep the version it had */ }
-        free.push({ id: context.storyId!, version })
-      },
-    }] satisfies RequestSpec[],
-  })
+    threads: WRITERS,
+    seconds: SECONDS,
+    luaSetup: `
+local drafts = { ${drafts.map(d => `{ ${d.id}, ${d.version} }`).join(', ')} }
+local next_draft = 0
+setup = function(thread)
+  next_draft = next_draft + 1
+  thread:set("draft_id", drafts[next_draft][1])
+  thread:set("draft_version", drafts[next_draft][2])
+end`,
+    lua: `
+local text = ${lua(JSON.stringify(storyBody(writerBench)).slice(1, -1))}
+request = function()
+  local body = '{"version":' .. draft_version .. ',"autosave":true,"body":"' .. text .. '\\n\\nTyped at ' .. os.time() .. '."}'
+  return wrk.format("PATCH", "/api/stories/" .. draft_id, { ["content-type"] = "application/json", cookie = ${lua(writer.cookie)}, origin = ${lua(origin)} }, body)
+end
+response = function(status, headers, body)
+  local v = body:match('"currentVersion":(%d+)') or body:match('"version":(%d+)')
+  if v then draft_version = tonumber(v) end
+end
+delay = function() return ${Math.round(1000 * WRITERS / AUTOSAVE_RATE)} end`,
+  }).then(r => ({ name: 'writers autosaving', ...r }))
 
   const memory: number[] = [rssMb(pid)]
   const sampler = setInterval(() => memory.push(rssMb(pid)), 1000)
@@ -151,7 +114,7 @@ await withTestStack(async (vars, pid) => {
     autosavesStored: saved.reduce((s, v, i) => s + v - drafts[i]!.version, 0),
   }
   console.log(JSON.stringify(report, null, 2))
-  console.log('\n| traffic | requests | req/s | p50 ms | p95 ms | p99 ms | non-2xx | errors |\n| --- | --- | --- | --- | --- | --- | --- | --- |')
-  for (const r of results) console.log(`| ${r.name} | ${r.requests} | ${r.perSecond.toFixed(0)} | ${r.p50} | ${r.p95} | ${r.p99} | ${r.non2xx} | ${r.errors + r.timeouts} |`)
+  console.log('\n| traffic | requests | req/s | p50 ms | p95 ms | p99 ms | non-2xx | socket errors |\n| --- | --- | --- | --- | --- | --- | --- | --- |')
+  for (const r of results) console.log(`| ${r.name} | ${r.requests} | ${r.perSecond.toFixed(0)} | ${r.p50.toFixed(1)} | ${r.p95.toFixed(1)} | ${r.p99.toFixed(1)} | ${r.badStatus} | ${r.socketErrors} |`)
   console.log(`\nserver RSS: ${report.memoryMb.start!.toFixed(0)} MB at start, ${report.memoryMb.peak.toFixed(0)} MB peak, ${report.memoryMb.end!.toFixed(0)} MB at the end; autosaves stored: ${report.autosavesStored}`)
 })
