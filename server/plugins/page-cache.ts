@@ -5,6 +5,7 @@
 // drops it before its answer goes out, and polling one small aggregate catches the
 // rest (the scheduled publisher, another app server's writes in memory mode).
 import type { H3Event } from 'h3'
+import redisDriver from 'unstorage/drivers/redis'
 import type { Encoding } from '../utils/compression'
 
 // PAGE_CACHE_POLL_MS: tests set it long to show the shared store needs no polling.
@@ -47,7 +48,9 @@ export default defineNitroPlugin((nitroApp) => {
   const redisUrl = process.env.REDIS_URL
   if (process.env.PAGE_CACHE === 'redis') {
     if (!redisUrl) throw new Error('PAGE_CACHE=redis needs REDIS_URL (for example redis://127.0.0.1:6379).')
-    setPageStore(RedisPageStore.mount(redisUrl))
+    const storage = useStorage()
+    storage.mount('pages', redisDriver({ url: redisUrl, base: 'pullsheet:pages', ttl: Math.ceil(PAGE_CACHE_TTL_MS / 1000), maxRetriesPerRequest: 1 }))
+    setPageStore(new RedisPageStore(storage))
   }
 
   nitroApp.hooks.hook('beforeResponse', async (event, response) => {

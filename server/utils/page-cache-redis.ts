@@ -3,7 +3,6 @@
 // one value: a length-prefixed JSON head, then the plain, Brotli and gzip bodies.
 import { createHash } from 'node:crypto'
 import type { Storage } from 'unstorage'
-import redisDriver from 'unstorage/drivers/redis'
 import { PAGE_CACHE_TTL_MS, type CachedPage, type PageStore } from './page-cache'
 
 interface Head extends Omit<CachedPage, 'identity' | 'encoded'> {
@@ -38,13 +37,8 @@ const groupOf = (slug: string | null) => (slug ? `story:${slug}` : LISTS)
 const itemKey = (key: string, slug: string | null) => `${groupOf(slug)}:${createHash('sha1').update(key).digest('hex')}`
 
 export class RedisPageStore implements PageStore {
+  /** storage: Nitro's storage with the Redis driver mounted at "pages" (server/plugins/page-cache.ts). */
   constructor(private storage: Storage) {}
-
-  static mount(url: string): RedisPageStore {
-    const storage = useStorage()
-    storage.mount('pages', redisDriver({ url, base: 'pullsheet:pages', ttl: Math.ceil(PAGE_CACHE_TTL_MS / 1000), lazyConnect: false, maxRetriesPerRequest: 1 }))
-    return new RedisPageStore(storage)
-  }
 
   async get(key: string, slug: string | null): Promise<CachedPage | undefined> {
     try {
