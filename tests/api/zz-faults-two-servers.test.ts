@@ -71,6 +71,9 @@ describe('two app servers', () => {
     }
     const current = expectOk(await editor.get(`/api/stories/${story.id}`)).story
     expectOk(await editor.patch(`/api/stories/${story.id}`, { version: current.version, deck: 'Second deck after the edit.' }))
+    // Readers see the published edition only: the edit reaches them as a correction.
+    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
+    expectOk(await transition(editor, story.id, 'publish_correction', { note: 'The deck was reworded.' }))
     for (const base of [new Client().base, SECOND]) {
       await expect.poll(async () => (await pageHtml(base, path)).includes('Second deck after the edit.'), { timeout: 15_000 }).toBe(true)
     }

@@ -59,6 +59,9 @@ describe('two app servers sharing the page cache in Redis', () => {
 
     const current = expectOk(await editor.get(`/api/stories/${story.id}`)).story
     expectOk(await editor.patch(`/api/stories/${story.id}`, { version: current.version, deck: 'The deck after the edit.' }))
+    // Readers see the published edition only: the edit reaches them as a correction.
+    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
+    expectOk(await transition(editor, story.id, 'publish_correction', { note: 'The deck was reworded.' }))
     for (const base of [bases[1]!, bases[0]!]) {
       const next = await page(base, path)
       expect(next.status, base).toBe(200)
