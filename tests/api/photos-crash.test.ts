@@ -70,7 +70,12 @@ describe('a crash mid-job', () => {
     await server(3022, { PHOTO_QUEUE: queue })
     const ready = await waitForPhoto(desk, bench, photoId, p => p.status === 'ready', 40_000)
     expect(ready.variants.map(v => v.width)).toEqual([480, 960, 1000])
-    expect(await jobOf(kind, photoId)).toMatchObject({ status: 'done', attempts: 2 })
+    // The photo row says ready a statement before the job row says done: wait for the job.
+    const done = await until('the job to be done', async () => {
+      const job = await jobOf(kind, photoId)
+      return job?.status === 'done' ? job : undefined
+    })
+    expect(done).toMatchObject({ status: 'done', attempts: 2 })
   }, 90_000)
 
   it('a worker thread that dies mid-job: the job is tried again and succeeds', async () => {
@@ -83,7 +88,10 @@ describe('a crash mid-job', () => {
     const res = await uploadPhoto(flaky.client, bench, await makeJpeg(800, 500), 'worker-dies.jpg')
     const ready = await waitForPhoto(desk, bench, res.body.photo.id, p => p.status === 'ready', 40_000)
     expect(ready.variants.map(v => v.width)).toEqual([480, 800])
-    const job = await jobOf(kind, ready.id)
+    const job = await until('the job to be done', async () => {
+      const row = await jobOf(kind, ready.id)
+      return row?.status === 'done' ? row : undefined
+    })
     expect(job).toMatchObject({ status: 'done', attempts: 2 })
     expect(job.last_error).toMatch(/stopped unexpectedly \(exit code 70\)/)
   }, 90_000)
