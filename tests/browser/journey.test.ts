@@ -335,8 +335,12 @@ describe('from the operator\'s upload link to the reader\'s download', () => {
       await data.getByTestId('units-switch').selectOption('kw-nm')
       await expect.poll(() => data.getByTestId('story-results').getAttribute('data-units')).toBe('kw-nm')
       const [download] = await Promise.all([page.waitForEvent('download'), data.getByTestId('download-data').click()])
-      expect(download.suggestedFilename()).toBe(`${slug}-results.csv`)
-      const [header, ...body] = csvRows(readFileSync((await download.path())!, 'utf8')).filter(r => r.some(c => c !== ''))
+      expect(download.suggestedFilename()).toBe(`${slug}-data.csv`)
+      // The download holds the edition's pulls and curves first; the results table follows its title row.
+      const lines = csvRows(readFileSync((await download.path())!, 'utf8')).filter(r => r.some(c => c !== ''))
+      const results = lines.findIndex(r => r[0] === 'Results')
+      expect(results, 'a "Results" section in the download').toBeGreaterThan(0)
+      const [header, ...body] = lines.slice(results + 1)
       const col = (name: string) => {
         const i = header!.indexOf(name)
         expect(i, `column "${name}" in ${header!.join(' | ')}`).toBeGreaterThanOrEqual(0)
