@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { signedIn } from '../support/http'
 import { expectOk } from '../support/workspace'
+import { formatTime } from '#shared/utils/time-text'
 import { acceptLeaving, benchWithPulls, createStoryFor, saveStateIs, typeInBody, type StoryBench } from './stories-fixtures'
 
 describe('saving a story without losing a word', () => {
@@ -126,7 +127,10 @@ describe('saving a story without losing a word', () => {
     await page.goto(`/stories/${storyId}/edit`)
     const banner = page.getByTestId('lock-banner')
     await banner.waitFor()
-    const since = await page.evaluate(iso => new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' }), lock.lock.since)
+    // Times read in the magazine's zone (a site setting an earlier test may have changed).
+    const admin = await signedIn('admin@example.com')
+    const zone = expectOk(await admin.get<{ settings: { timeZone: string } }>('/api/admin/settings')).settings.timeZone
+    const since = formatTime(lock.lock.since, zone)
     expect(await banner.textContent()).toContain(`${lock.lock.displayName} is editing since ${since}`)
     // The lock warns; it never stops a save.
     await typeInBody(page, '\n\nWritten while someone else had it open.')
