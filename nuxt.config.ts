@@ -56,7 +56,8 @@ export default defineNuxtConfig({
     },
   },
   vite: { build: { sourcemap: false } },
-  typescript: { strict: true },
+  // Component tests mount .vue files: they are checked with the app's types, not the tools'.
+  typescript: { strict: true, tsConfig: { include: ['../tests/components/**/*'] } },
   telemetry: false,
   hooks: {
     // nuxt-auth-utils' own session plugins fetch /api/_auth/session inside every server

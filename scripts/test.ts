@@ -1,4 +1,4 @@
-// npm test: lint, typecheck, unit tests; then its own services on other ports with
+// npm test: lint, typecheck, unit and component tests; then its own services on other ports with
 // throwaway data, one build, the built server, API and browser tests; then stop all.
 import { existsSync, readFileSync, rmSync } from 'node:fs'
 import { join } from 'node:path'
@@ -12,7 +12,7 @@ import { startServices, type RunningServices } from './lib/services'
 const bin = (name: string) => join(ROOT, 'node_modules', '.bin', name)
 // `npm test -- api` runs one project without lint and typecheck; file filters may
 // follow: `npm test -- api zz-faults` (vitest matches them against file paths).
-const PROJECTS = ['unit', 'api', 'browser']
+const PROJECTS = ['unit', 'components', 'api', 'browser']
 const only = process.argv.slice(2).filter(a => PROJECTS.includes(a))
 const filters = process.argv.slice(2).filter(a => !PROJECTS.includes(a))
 const failures: string[] = []
@@ -51,7 +51,8 @@ try {
     await step('typecheck', bin('vue-tsc'), ['-b', '--noEmit'])
   }
   await vitest('unit')
-  if (!only.length || only.some(p => p !== 'unit')) {
+  await vitest('components')
+  if (!only.length || only.some(p => p === 'api' || p === 'browser')) {
     await buildIfNeeded()
     services = await startServices(testEnv)
     await migrate(settings.DATABASE_URL!)
