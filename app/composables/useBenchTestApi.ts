@@ -28,8 +28,11 @@ export function deleteConfirmOf(err: unknown): DeleteConfirmData | undefined {
 
 export const benchTestPath = (id: number, rest = '') => `/api/bench-tests/${id}${rest}`
 
-/** refreshNuxtData for every live cache entry whose key matches (e.g. all analyses of one bench test). */
+/**
+ * refreshNuxtData for every fetched entry whose key matches (e.g. all analyses of one
+ * bench test). The keys come from the payload, Nuxt's public record of fetched data.
+ */
 export function refreshNuxtDataWhere(match: (key: string) => boolean) {
-  const keys = Object.keys(useNuxtApp()._asyncData).filter(match)
+  const keys = Object.keys(useNuxtApp().payload.data).filter(match)
   return keys.length ? refreshNuxtData(keys) : Promise.resolve()
 }

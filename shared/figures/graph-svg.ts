@@ -1,13 +1,14 @@
 // Story graphs drawn as SVG on the server (ECharts' server-side renderer), so
-// they show without JavaScript, print sharp and cost nothing to scroll past. The
+// they show without JavaScript, print sharp and cost nothing to scroll past. Pure (no
+// I/O), so it lives in shared/; only the server render imports it. The
 // figure components call this while rendering the page on the server only; the
 // browser never downloads ECharts until a graph turns interactive.
 import * as echarts from 'echarts/core'
 import { LineChart } from 'echarts/charts'
 import { AriaComponent, GridComponent, LegendComponent, MarkLineComponent } from 'echarts/components'
 import { SVGRenderer } from 'echarts/renderers'
-import type { PullChartOption } from '#shared/utils/chart-options'
-import { memoOn } from '#shared/utils/object-memo'
+import type { PullChartOption } from '../utils/chart-options'
+import { memoOn } from '../utils/object-memo'
 
 echarts.use([LineChart, GridComponent, LegendComponent, MarkLineComponent, AriaComponent, SVGRenderer])
 
