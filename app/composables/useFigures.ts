@@ -38,9 +38,9 @@ export const figureSource = figureSourceOf
 export const storyFiguresKey = (storyId: number) => `story-figures:${storyId}`
 
 /** The ?uses= of the figures request for a draft body: the setups its figures name. */
-export function usesQuery(body: string): { uses: string, sheet: '0' | '1' } {
+export function usesQuery(body: string): { uses: string, sheet: '0' | '1', day: '0' | '1' } {
   const used = setupsUsed(body)
-  return { uses: used.all ? 'all' : used.ids.join(','), sheet: used.buildSheet ? '1' : '0' }
+  return { uses: used.all ? 'all' : used.ids.join(','), sheet: used.buildSheet ? '1' : '0', day: used.dayReport ? '1' : '0' }
 }
 
 /**

@@ -38,7 +38,9 @@ export async function storyFigures(db: Db, row: StoryRow, opts: FigureOptions): 
   })
   // The editor's picker offers every setup of the bench test; readers get only the story's.
   const benchSetups = live?.map(s => ({ setupId: s.id, label: s.label, isBaseline: s.isBaseline, analysed: analysed.has(s.id) }))
-  return { ...figures, ...(live ? { setups: live, benchSetups } : {}), problems }
+  // The picker shows what the test day would say before the body places it.
+  const dayReport = live && figures.dayReport === undefined ? { dayReport: await storyDayReport(db, { id: data.benchTest.id, defaultStandard: data.bench.defaultStandard }) } : {}
+  return { ...figures, ...(live ? { setups: live, benchSetups } : {}), ...dayReport, problems }
 }
 
 export async function getStoryFigures(user: CurrentUser, storyId: number, uses?: SetupsUsed): Promise<StoryFigures> {

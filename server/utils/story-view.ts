@@ -10,7 +10,8 @@ import type { CurrentUser } from '#shared/types/users'
 import type { StoryFigures, StoryPhoto } from '#shared/types/stories'
 import type { AnalysisUnits } from '#shared/types/analysis'
 import type { CorrectionStandard } from '#shared/dyno'
-import type { BuildSheet, Setup } from '#shared/types/workspace'
+import type { BenchTest, BuildSheet, Setup } from '#shared/types/workspace'
+import type { DayReport } from '#shared/types/dyno-day'
 import { canonicalJson, movedFigures, setupsUsed, type SetupsUsed, STORY_ROUNDING, storyFiguresFromData } from '#shared/utils/story-view'
 import { LruCache } from '#shared/utils/lru-cache'
 
@@ -26,6 +27,12 @@ function frozenBuildSheet(b: BuildSheet | null): BuildSheet | null {
   return b ? { ...b, version: 0, updatedAt: '' } : null
 }
 
+/** The plan against what happened, as the day view reports it; null while the bench test has no plan. */
+export async function storyDayReport(db: Db, benchTest: Pick<BenchTest, 'id' | 'defaultStandard'>): Promise<DayReport | null> {
+  const day = await getDayView(db, benchTest.id, benchTest.defaultStandard)
+  return day.plan.version === 0 ? null : day.report
+}
+
 /** What the story's figures use, from the workspace as it is now. */
 export async function liveStoryData(db: Db, row: TextRow, uses?: SetupsUsed): Promise<StoryData> {
   const benchRow = await db('bench_tests').join('users as owner', 'owner.id', 'bench_tests.owner_id')
@@ -33,10 +40,11 @@ export async function liveStoryData(db: Db, row: TextRow, uses?: SetupsUsed): Pr
   if (!benchRow) notFound('The bench test of this story is gone.')
   const benchTest = toBenchTest(benchRow)
   const used = uses ?? setupsUsed(row.body)
-  const [live, photoIds, buildSheet] = await Promise.all([
+  const [live, photoIds, buildSheet, dayReport] = await Promise.all([
     listSetups(db, benchTest.id),
     usedPhotoIds(db, row),
     used.buildSheet ? getBuildSheet(db, benchTest.id) : Promise.resolve(null),
+    used.dayReport ? storyDayReport(db, benchTest) : Promise.resolve(undefined),
   ])
   let chosen: Setup[] = []
   if (used.all) chosen = live
@@ -51,6 +59,8 @@ export async function liveStoryData(db: Db, row: TextRow, uses?: SetupsUsed): Pr
     bench,
     setups: chosen.map(frozenSetup),
     buildSheet: frozenBuildSheet(buildSheet),
+    // The key only when the body shows the day, so other stories' data (and hashes) stay as they were.
+    ...(dayReport !== undefined ? { dayReport } : {}),
     photoIds,
     rounding: STORY_ROUNDING,
   }

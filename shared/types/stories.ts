@@ -9,6 +9,7 @@ import type { Role } from './roles'
 import { StoryActionSchema, StoryStateSchema, type StoryAction, type StoryGuard, type StoryState } from './story-workflow'
 import type { FigureComparison, FigureUnit, InlineFigureKey } from './story-figures'
 import type { AnalysisResponse, BuildSheet, Setup, StaleVersionData } from './workspace'
+import type { DayReport } from './dyno-day'
 import { bodySafetyIssues } from '../utils/story-body'
 
 // ---------- limits and timing ----------
@@ -367,6 +368,8 @@ export interface StoryFigures {
   /** Every ordered pair of analysed setups, for gains against any setup. */
   comparisons: FigureComparison[]
   buildSheet: BuildSheet | null
+  /** The test plan against what happened (::day-report); present only when the body shows it, null without a plan. */
+  dayReport?: DayReport | null
   /** The story's setups with their parts (cam cards), in order; for the editor every live setup. */
   setups: Setup[]
   /** Editor only: every setup of the bench test, for the figure picker. */

@@ -3,6 +3,7 @@
 // freezes it into an edition when an editor approves the story; readers' pages are
 // built only from an edition's copy. Same data in, same figures out (story-view.ts).
 import type { BenchData } from '../dyno/analyse'
+import type { DayReport } from './dyno-day'
 import type { BuildSheet, Setup } from './workspace'
 import type { FigureUnit } from './story-figures'
 
@@ -22,6 +23,12 @@ export interface StoryData {
   setups: Setup[]
   /** Only when the body shows the build sheet. */
   buildSheet: BuildSheet | null
+  /**
+   * Only when the body shows the test day (::day-report): the plan against what
+   * happened, null when the bench test has no plan. Absent otherwise, so data
+   * frozen before this existed hashes the same.
+   */
+  dayReport?: DayReport | null
   /** Photos the story shows: hero first, then the body's, in order. */
   photoIds: number[]
   /** How figures are reported (story-figures.ts DEFAULT_DECIMALS) and drawn curves' decimals. */

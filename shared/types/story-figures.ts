@@ -176,6 +176,23 @@ export const PhotoProps = figureOptions<{ id: number, size: PhotoSize }>({
 /** Several photos in a row or grid. */
 export const GalleryProps = figureOptions<{ ids: number[], caption?: string }>({ ids: IdListOption, caption: optional(CaptionOption) })
 
+export const DAY_REPORT_SHOWS = [
+  { id: 'both', label: 'The sentences and the table' },
+  { id: 'summary', label: 'The sentences only' },
+  { id: 'table', label: 'The table only' },
+] as const
+export type DayReportShow = typeof DAY_REPORT_SHOWS[number]['id']
+const DAY_REPORT_SHOW_IDS = DAY_REPORT_SHOWS.map(s => s.id)
+
+/**
+ * The bench test's test plan against what happened on the day (pulls made, setups
+ * skipped, time per swap), as the day view reports it; frozen with the story's data.
+ */
+export const DayReportProps = figureOptions<{ show: DayReportShow, caption?: string }>({
+  show: withDefault(oneOf(DAY_REPORT_SHOW_IDS, `Use one of ${quotedList(DAY_REPORT_SHOW_IDS)}`), 'both'),
+  caption: optional(CaptionOption),
+})
+
 /** The usual cautions (brief: "Cautions"); the text is the site's own, not the writer's. */
 export const CautionsProps = figureOptions<Record<never, never>>({})
 
@@ -188,6 +205,7 @@ export const BLOCK_FIGURES = [
   { name: 'photo', label: 'Photo', schema: PhotoProps, example: '::photo{id=12}' },
   { name: 'gallery', label: 'Gallery', schema: GalleryProps, example: '::gallery{ids="12,13"}' },
   { name: 'cautions', label: 'Cautions', schema: CautionsProps, example: '::cautions' },
+  { name: 'day-report', label: 'The test day: plan against what happened', schema: DayReportProps, example: '::day-report' },
 ] as const
 export type BlockFigureName = typeof BLOCK_FIGURES[number]['name']
 

@@ -23,6 +23,8 @@ export interface SetupsUsed {
   all: boolean
   /** The body shows the build sheet. */
   buildSheet: boolean
+  /** The body shows the test day, the plan against what happened (optional for callers that predate it). */
+  dayReport?: boolean
 }
 
 const idsOf = (v: unknown): number[] => (Array.isArray(v) ? v.filter((x): x is number => typeof x === 'number') : typeof v === 'number' ? [v] : [])
@@ -34,15 +36,17 @@ export function setupsUsed(body: string): SetupsUsed {
   const ids: number[] = []
   let all = false
   let buildSheet = false
+  let dayReport = false
   for (const use of findFigures(body)) {
     const parsed = parseFigure(use)
     if (!parsed?.success) continue
     const o = parsed.data as Record<string, unknown>
     if (use.name === 'spec-box') buildSheet = true
+    if (use.name === 'day-report') dayReport = true
     if (TAKES_SETUPS.has(use.name) && !idsOf(o.setups).length) all = true
     ids.push(...idsOf(o.setups), ...idsOf(o.setup), ...idsOf(o.vs), ...idsOf(o.baseline))
   }
-  return { ids: [...new Set(ids)], all: all || ids.length === 0, buildSheet }
+  return { ids: [...new Set(ids)], all: all || ids.length === 0, buildSheet, dayReport }
 }
 
 export interface FigureSettings {
@@ -78,6 +82,8 @@ export function storyFiguresFromData(data: StoryData, photos: StoryPhoto[], sett
     analysisProblem: problem,
     comparisons,
     buildSheet: data.buildSheet,
+    // Only when the data has it: other stories' payloads stay as they were.
+    ...(data.dayReport !== undefined ? { dayReport: data.dayReport } : {}),
     setups: data.setups,
     photos,
     problems: [],
@@ -132,9 +138,16 @@ function tableTexts(figures: StoryFigures): Map<string, { label: string, text: s
   return out
 }
 
+function dayReportTexts(figures: StoryFigures): Map<string, { label: string, text: string }> {
+  const out = new Map<string, { label: string, text: string }>()
+  if (figures.dayReport) out.set('day-report', { label: 'The test day, plan against what happened', text: figures.dayReport.summary })
+  return out
+}
+
 /**
  * Every figure of the story whose reported value differs between two sets of data:
- * the inline values of the body and each setup's row of the results table.
+ * the inline values of the body, each setup's row of the results table and the
+ * test day's sentences.
  */
 export function movedFigures(body: string, before: StoryFigures, after: StoryFigures): MovedFigure[] {
   const moved: MovedFigure[] = []
@@ -148,6 +161,7 @@ export function movedFigures(body: string, before: StoryFigures, after: StoryFig
   }
   compare(inlineTexts(body, figureSourceOf(before)), inlineTexts(body, figureSourceOf(after)))
   compare(tableTexts(before), tableTexts(after))
+  compare(dayReportTexts(before), dayReportTexts(after))
   return moved
 }
 

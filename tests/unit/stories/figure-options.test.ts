@@ -2,7 +2,8 @@
 // read without zod by shared/types/story-figures.ts: the server on save, the
 // editor's picker and the figure components in the reader's browser all use these.
 import { describe, expect, it } from 'vitest'
-import { CamCardProps, FigureValueProps, GainGraphProps, GalleryProps, PhotoProps, PullGraphProps, ResultsTableProps } from '#shared/types/story-figures'
+import { setupsUsed } from '#shared/utils/story-view'
+import { CamCardProps, DayReportProps, FigureValueProps, GainGraphProps, GalleryProps, PhotoProps, PullGraphProps, ResultsTableProps } from '#shared/types/story-figures'
 
 const issuesOf = (result: { success: boolean, error?: { issues: { path: (string | number)[], message: string }[] } }) =>
   result.success ? [] : result.error!.issues.map(i => [i.path.join('.'), i.message])
@@ -61,5 +62,18 @@ describe('reading figure options', () => {
   it('refuses anything but a set of options', () => {
     expect(issuesOf(PullGraphProps.safeParse(null))).toEqual([['', 'Give the options as name=value pairs']])
     expect(issuesOf(PullGraphProps.safeParse(['12']))).toEqual([['', 'Give the options as name=value pairs']])
+  })
+})
+
+describe('the test day figure', () => {
+  it('shows the sentences and the table unless told otherwise, and names a wrong choice', () => {
+    expect(DayReportProps.safeParse({})).toEqual({ success: true, data: { show: 'both' } })
+    expect(DayReportProps.safeParse({ show: 'summary', caption: 'How the day went' })).toEqual({ success: true, data: { show: 'summary', caption: 'How the day went' } })
+    expect(issuesOf(DayReportProps.safeParse({ show: 'all' }))).toEqual([['show', 'Use one of "both", "summary", "table"']])
+  })
+
+  it('asks for the day only when the body shows it', () => {
+    expect(setupsUsed('::day-report{show="table"}\n::').dayReport).toBe(true)
+    expect(setupsUsed('::pull-graph\n::\n\n::spec-box\n::').dayReport).toBe(false)
   })
 })

@@ -6,6 +6,7 @@ import type { StoryFigures } from '#shared/types/stories'
 const FiguresQuery = z.object({
   uses: z.string().regex(/^(all|\d+(,\d+){0,47})?$/, 'Use "all" or setup ids separated by commas').optional(),
   sheet: z.enum(['0', '1']).optional(),
+  day: z.enum(['0', '1']).optional(),
 })
 
 export default defineEventHandler(async (event): Promise<StoryFigures> => {
@@ -13,6 +14,6 @@ export default defineEventHandler(async (event): Promise<StoryFigures> => {
   const query = await getValidatedQuery(event, zodParser(FiguresQuery))
   const uses = query.uses === undefined
     ? undefined
-    : { all: query.uses === 'all', ids: query.uses && query.uses !== 'all' ? query.uses.split(',').map(Number) : [], buildSheet: query.sheet === '1' }
+    : { all: query.uses === 'all', ids: query.uses && query.uses !== 'all' ? query.uses.split(',').map(Number) : [], buildSheet: query.sheet === '1', dayReport: query.day === '1' }
   return getStoryFigures(user, params.id, uses)
 })
