@@ -35,7 +35,7 @@ try {
   if (await demoMagazineWanted(DATABASE_URL!)) {
     console.log('demo magazine: writing, photographing and publishing the season...')
     await buildDemoMagazine(env.app.baseUrl, DATABASE_URL!)
-      .then(r => console.log(`demo magazine: ${r.stories} stories, ${r.photos} photos in ${r.seconds.toFixed(1)} s`))
+      .then(r => console.log(`demo magazine: ${r.stories} stories, ${r.photos} photos in ${r.seconds.toFixed(1)} s (writing ${r.phases.writing.toFixed(1)} s, waiting for photo sizing ${r.phases.waitingForPhotos.toFixed(1)} s, publishing ${r.phases.publishing.toFixed(1)} s)`))
       .catch((error: Error) => console.warn(`demo magazine: stopped: ${error.message}`))
   }
   console.log(`

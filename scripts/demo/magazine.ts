@@ -22,7 +22,27 @@ const PHOTO_SIZE = { width: 960, height: 600 }
 
 interface Prepared { demo: DemoStory, benchTestId: number, setups: number[], photos: Photo[], story?: Story }
 
-export interface DemoMagazineResult { stories: number, photos: number, seconds: number }
+export interface DemoMagazineResult {
+  stories: number
+  photos: number
+  seconds: number
+  /** Where the time went: drawing, uploading and writing; the photo jobs' tail; publishing and the clock. */
+  phases: { writing: number, waitingForPhotos: number, publishing: number }
+}
+
+/** fn over items, at most `limit` at a time; results in the items' order. */
+async function atMost<T, R>(limit: number, items: readonly T[], fn: (item: T) => Promise<R>): Promise<R[]> {
+  const results: R[] = []
+  let next = 0
+  const lane = async () => {
+    while (next < items.length) {
+      const i = next++
+      results[i] = await fn(items[i]!)
+    }
+  }
+  await Promise.all(Array.from({ length: Math.min(limit, items.length) }, lane))
+  return results
+}
 
 /** Whether this database wants the demo magazine: the demo seed ran and no story exists yet. */
 export async function demoMagazineWanted(databaseUrl: string): Promise<boolean> {
@@ -42,17 +62,21 @@ async function prepare(db: Knex, writer: DemoClient, demo: DemoStory): Promise<P
   if (!benchTest) throw new Error(`demo seed: no bench test ${demo.benchTestSlug} (run the database seed first)`)
   const benchTestId = Number(benchTest.id)
   const setups = (await db('setups').where({ bench_test_id: benchTestId }).whereNull('deleted_at').orderBy('position').pluck('id') as number[]).map(Number)
-  const photos: Photo[] = []
+  // Each photo goes up while the next one is drawn: drawing holds this process, the
+  // upload and the server's sizing do not.
+  const uploads: Promise<Photo>[] = []
   for (const [i, shot] of demo.photos.entries()) {
     const size = shot.hero ? HERO_SIZE : PHOTO_SIZE
     const bytes = await drawPhoto(shot.scene, size.width, size.height)
     const form = new FormData()
     form.append('file', new Blob([new Uint8Array(bytes)], { type: 'image/png' }), `${demo.benchTestSlug}-${i + 1}.png`)
-    const { photo } = await writer.request<PhotoUploadResult>('POST', `/api/bench-tests/${benchTestId}/photos`, form)
-    const { caption, credit, altText } = shot
-    photos.push((await writer.patch<{ photo: Photo }>(`/api/photos/${photo.id}`, { version: photo.version, caption, credit, altText })).photo)
+    uploads.push((async () => {
+      const { photo } = await writer.request<PhotoUploadResult>('POST', `/api/bench-tests/${benchTestId}/photos`, form)
+      const { caption, credit, altText } = shot
+      return (await writer.patch<{ photo: Photo }>(`/api/photos/${photo.id}`, { version: photo.version, caption, credit, altText })).photo
+    })())
   }
-  return { demo, benchTestId, setups, photos }
+  return { demo, benchTestId, setups, photos: await Promise.all(uploads) }
 }
 
 async function move(client: DemoClient, story: Story, action: string, extra: Record<string, unknown> = {}): Promise<Story> {
@@ -165,14 +189,20 @@ export async function buildDemoMagazine(baseUrl: string, databaseUrl: string, no
     const editor = await DemoClient.signedIn(baseUrl, 'editor@example.com', DEMO_PASSWORD)
     const writerId = (await writer.get<{ user: { id: number } }>('/api/auth/me')).user.id
 
-    const prepared: Prepared[] = []
-    for (const demo of DEMO_STORIES) prepared.push(await prepare(db, writer, demo))
-    for (const p of prepared) await write(p, writer, editor, p.demo.coByline ? [writerId, Number(coWriter.id)] : [writerId])
+    // A few stories at a time: while one draws its photos, others wait on the server.
+    const prepared = await atMost(3, DEMO_STORIES, async (demo) => {
+      const p = await prepare(db, writer, demo)
+      await write(p, writer, editor, p.demo.coByline ? [writerId, Number(coWriter.id)] : [writerId])
+      return p
+    })
+    const written = Date.now()
     const photos = await photosReady(writer, [...new Set(prepared.map(p => p.benchTestId))], prepared.reduce((n, p) => n + p.photos.length, 0))
+    const sized = Date.now()
     const oldestFirst = [...prepared].sort((a, b) => (b.demo.publishedDaysAgo ?? -1) - (a.demo.publishedDaysAgo ?? -1))
     for (const p of oldestFirst) await finish(p, editor, now)
     await applyDemoClock(db, prepared, now)
-    return { stories: prepared.length, photos, seconds: (Date.now() - started) / 1000 }
+    const seconds = (ms: number) => ms / 1000
+    return { stories: prepared.length, photos, seconds: seconds(Date.now() - started), phases: { writing: seconds(written - started), waitingForPhotos: seconds(sized - written), publishing: seconds(Date.now() - sized) } }
   }
   finally { await db.destroy() }
 }
