@@ -61,10 +61,12 @@ try {
           const { value, done } = await reader.read()
           if (done) return
           buffer += decoder.decode(value)
-          let m: RegExpExecArray | null
-          while ((m = /id: (\d+)\nevent: change\n[^\n]*\n\n/.exec(buffer))) {
-            times.set(Number(m[1]), performance.now())
-            buffer = buffer.slice(m.index + m[0].length)
+          // One message per blank line; the first also carries a retry: line.
+          for (let cut = buffer.indexOf('\n\n'); cut >= 0; cut = buffer.indexOf('\n\n')) {
+            const message = buffer.slice(0, cut)
+            buffer = buffer.slice(cut + 2)
+            const id = /^id: (\d+)$/m.exec(message)?.[1]
+            if (id && /^event: change$/m.test(message)) times.set(Number(id), performance.now())
           }
         }
       }
