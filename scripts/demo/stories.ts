@@ -113,6 +113,13 @@ Below ${fv('torque-crossover-rpm', c238, stock)} the longest cam gives torque ba
 
 ${gallery(c)}
 
+## The day
+
+We planned the four cams for one day in bay 1, three pulls each and 75 minutes a swap. How it went:
+
+::day-report
+::
+
 ## The engine
 
 ::spec-box

@@ -105,6 +105,16 @@ describe('the demo magazine', () => {
     expect(page.status).toBe(200)
   })
 
+  it('quotes the cam test\'s day (plan against what happened) in its story, as frozen in the edition', async () => {
+    const story = await db('stories').join('bench_tests', 'bench_tests.id', 'stories.bench_test_id')
+      .where('bench_tests.slug', 'three-camshafts-in-a-5-7-l-pushrod-v8').first('stories.slug', 'stories.body')
+    expect(story.body).toContain('::day-report')
+    const res = await fetch(`${BASE}/api/magazine/stories/${story.slug}`, { headers: { accept: 'application/json' } })
+    const view = await res.json() as { figures: { dayReport: { summary: string, rows: unknown[] } } }
+    expect(view.figures.dayReport.rows).toHaveLength(4)
+    expect(view.figures.dayReport.summary).toBe('4 of 4 planned setups tested, 12 pulls made of 12 planned. Swaps took 82 minutes on average (214 cam 82, 226 cam 71, 238 cam 94).')
+  })
+
   it('answers 410 for the withdrawn story', async () => {
     const withdrawn = await db('stories').where({ state: 'withdrawn' }).first('slug')
     const res = await fetch(`${BASE}/api/magazine/stories/${withdrawn.slug}`, { headers: { accept: 'application/json' } })

@@ -45,3 +45,39 @@ export async function buildDemoDayPlan(db: Knex, ownerId: number): Promise<numbe
   await saveTestPlan(db, ownerId, benchTest.id, { version: 0, ...plan })
   return benchTest.id
 }
+
+export const DEMO_CAM_TEST_SLUG = 'three-camshafts-in-a-5-7-l-pushrod-v8'
+
+/**
+ * The magazine's cam test as it was run: a plan of four cams, three pulls each, 75
+ * minutes planned per swap, and the swaps as long as they took on the (invented) day,
+ * so its story can quote the plan against what happened. The pulls were imported
+ * by the seed a moment ago: each swap's start is set that many minutes before its
+ * first pull, which is all the report reads.
+ */
+export async function planDemoCamDay(db: Knex, ownerId: number): Promise<void> {
+  const bench = await db('bench_tests').where({ slug: DEMO_CAM_TEST_SLUG }).first('id')
+  if (!bench || await db('test_plans').where({ bench_test_id: bench.id }).first('bench_test_id')) return
+  const setups = await db('setups').where({ bench_test_id: bench.id }).whereNull('deleted_at').orderBy('position').select('id', 'label') as { id: number, label: string }[]
+  const swapTook = [null, 82, 71, 94]
+  const plan = await saveTestPlan(db, ownerId, Number(bench.id), {
+    version: 0,
+    acceptance: { rpmFrom: 2500, rpmTo: 6500, coolantF: null, oilF: null, airTempF: null, baroInHg: null, repeatPct: 1 },
+    notes: 'Idle vacuum at 750 rpm before each cam\'s pulls.',
+    steps: setups.map((s, i) => ({
+      setupId: s.id,
+      partsChange: i === 0 ? 'None: the production cam' : `Swap the camshaft for the ${s.label}`,
+      swapMinutes: i === 0 ? null : 75,
+      plannedPulls: 3,
+      checklist: i === 0 ? [{ text: 'Read idle vacuum at 750 rpm' }] : [{ text: 'Degree the cam' }, { text: 'Check the lifter preload' }, { text: 'Read idle vacuum at 750 rpm' }],
+    })),
+  })
+  for (const [i, step] of plan.steps.entries()) {
+    const took = swapTook[i]
+    if (took === undefined || took === null) continue
+    const first = await db('pulls').where({ setup_id: step.setupId }).orderBy('id').first('uploaded_at') as { uploaded_at: Date } | undefined
+    if (!first) continue
+    await db('test_plan_steps').where({ id: step.id }).update({ started_at: new Date(new Date(first.uploaded_at).getTime() - took * 60_000) })
+  }
+  await db('test_plans').where({ bench_test_id: bench.id }).update({ day_started_at: db.raw('(SELECT MIN(uploaded_at) FROM pulls WHERE bench_test_id = ?)', [bench.id]) })
+}
