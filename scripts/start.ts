@@ -30,7 +30,9 @@ try {
   const seedStarted = Date.now()
   if (await seedIfEmpty(DATABASE_URL!)) console.log(`database: demo data seeded in ${((Date.now() - seedStarted) / 1000).toFixed(1)} s`)
   await buildIfNeeded()
-  app = await startApp(env)
+  // Two photos sized at once (the production default is one, for 24 MP uploads on
+  // small servers): the demo's drawn photos are small, and a local machine has the cores.
+  app = await startApp(env, { PHOTO_WORKERS: process.env.PHOTO_WORKERS ?? '2' })
   app.on('exit', code => void shutdown(code ?? 1))
   if (await demoMagazineWanted(DATABASE_URL!)) {
     console.log('demo magazine: writing, photographing and publishing the season...')

@@ -17,7 +17,9 @@ import { drawPhoto } from './photo-scenes'
 import { DEMO_STORIES, type DemoStory } from './stories'
 
 export const DEMO_CO_WRITER = { email: 'bench-writer@example.com', displayName: 'Tobiah Renk' }
-const HERO_SIZE = { width: 1600, height: 1000 }
+// 1280 px covers the hero's widest place on a page (1100 CSS px at desktop width) with
+// the same sharpness as 1600 did, for two thirds of the pixels to draw, decode and encode.
+const HERO_SIZE = { width: 1280, height: 800 }
 const PHOTO_SIZE = { width: 960, height: 600 }
 
 interface Prepared { demo: DemoStory, benchTestId: number, setups: number[], photos: Photo[], story?: Story }

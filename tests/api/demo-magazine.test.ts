@@ -48,7 +48,7 @@ beforeAll(async () => {
   await dbScript('migrate')
   await dbScript('seed')
   // Its mail goes nowhere: the other tests read the shared catcher for the demo accounts.
-  app = await startApp(env, { DATABASE_URL: url, S3_BUCKET: BUCKET, BASE_URL: BASE, SMTP_URL: 'smtp://127.0.0.1:9', PHOTO_POLL_MS: '200' }, PORT)
+  app = await startApp(env, { DATABASE_URL: url, S3_BUCKET: BUCKET, BASE_URL: BASE, SMTP_URL: 'smtp://127.0.0.1:9', PHOTO_POLL_MS: '200', PHOTO_WORKERS: '2' }, PORT) // as npm start runs it
   const seeded = Date.now()
   result = await buildDemoMagazine(BASE, url, new Date())
   console.log(`demo magazine: ${result.stories} stories, ${result.photos} photos in ${result.seconds.toFixed(1)} s (writing ${result.phases.writing.toFixed(1)} s, waiting for photo sizing ${result.phases.waitingForPhotos.toFixed(1)} s, publishing ${result.phases.publishing.toFixed(1)} s; seed and server start before it ${((seeded - started) / 1000).toFixed(1)} s, load average ${loadavg()[0]!.toFixed(1)})`)

@@ -6,7 +6,7 @@ import type { Knex } from 'knex'
 import type { SavePlanInput } from '../../../shared/types/dyno-day'
 import { createBenchTest } from '../../utils/bench-test-core'
 import { putBuildSheet } from '../../utils/build-sheets'
-import { saveTestPlan } from '../../utils/dyno-day'
+import { saveTestPlan } from '../../utils/test-plans'
 import { createSetup } from '../../utils/setups'
 
 export const DEMO_DAY_SLUG = 'three-cams-on-a-5-3-l-pushrod-v8-test-day'
