@@ -102,14 +102,15 @@ export interface ReportStepInput {
 
 /** The plan against what happened, as rows and as sentences a story can quote. */
 export function dayReport(steps: readonly ReportStepInput[]): DayReport {
-  const rows: DayReportRow[] = steps.map(s => ({
+  const rows: DayReportRow[] = steps.map((s, i) => ({
     stepId: s.stepId,
     setupLabel: s.setupLabel,
     plannedPulls: s.plannedPulls,
     pullsMade: s.pullsMade,
     pullsCounted: s.pullsCounted,
     swapMinutesPlanned: s.swapMinutes,
-    swapMinutesActual: s.swapMinutesActual,
+    // The first step swaps nothing: its start to its first pull is the warm-up, not a swap.
+    swapMinutesActual: i === 0 ? null : s.swapMinutesActual,
     outcome: s.status === 'skipped' ? 'skipped' : s.pullsMade === 0 ? 'not reached' : s.pullsCounted >= s.plannedPulls ? 'done' : 'short',
   }))
   const pullsPlanned = rows.reduce((n, r) => n + r.plannedPulls, 0)

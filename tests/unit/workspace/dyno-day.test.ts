@@ -59,6 +59,13 @@ describe('plan against the day', () => {
     ])
     expect(r.rows.map(x => x.outcome)).toEqual(['done', 'short', 'skipped', 'done'])
     expect(r.summary).toBe('3 of 4 planned setups tested, 8 pulls made of 12 planned. 1 setup was skipped: Cam B. Swaps took 90 minutes on average (Cam A 104, Cam C 76).')
+    // The first step's start to its first pull is the warm-up, not a swap.
+    const warm = dayReport([
+      { stepId: 1, setupLabel: 'Baseline', plannedPulls: 1, swapMinutes: null, status: 'done', pullsMade: 1, pullsCounted: 1, swapMinutesActual: 25 },
+      { stepId: 2, setupLabel: 'Cam A', plannedPulls: 1, swapMinutes: 90, status: 'done', pullsMade: 1, pullsCounted: 1, swapMinutesActual: 80 },
+    ])
+    expect(warm.rows.map(x => x.swapMinutesActual)).toEqual([null, 80])
+    expect(warm.summary).toBe('2 of 2 planned setups tested, 2 pulls made of 2 planned. Swaps took 80 minutes on average (Cam A 80).')
     expect(minutesBetween('2026-05-14T10:00:00Z', '2026-05-14T11:29:40Z')).toBe(90)
     expect(minutesBetween('2026-05-14T10:00:00Z', null)).toBeNull()
   })
