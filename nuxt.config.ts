@@ -52,6 +52,20 @@ export default defineNuxtConfig({
       async compiled(nitro) {
         const { cp } = await import('node:fs/promises')
         await cp(`${nitro.options.rootDir}/server/workers`, `${nitro.options.output.serverDir}/workers`, { recursive: true })
+        // Pull checks run in piscina worker threads (server/utils/pull-pool.ts): the
+        // worker is TypeScript with shared/dyno behind it, bundled into one plain file.
+        const { build } = await import('esbuild')
+        await build({
+          entryPoints: [`${nitro.options.rootDir}/server/pull-worker/pull-check-worker.ts`],
+          outfile: `${nitro.options.output.serverDir}/workers/pull-check-worker.mjs`,
+          bundle: true,
+          format: 'esm',
+          platform: 'node',
+          target: 'node20',
+          logLevel: 'warning',
+          // papaparse is CommonJS; ESM output needs a require for its Node branch.
+          banner: { js: 'import { createRequire } from "node:module"; const require = createRequire(import.meta.url);' },
+        })
       },
     },
   },

@@ -5,6 +5,7 @@ import type { Knex } from 'knex'
 import type { BenchTest, CreateBenchTestInput } from '../../shared/types/workspace'
 import type { CorrectionStandard } from '../../shared/dyno/index'
 import type { EngineFamily, PartType } from '../../shared/types/catalog'
+import { withFreeSlug } from './slug-retry'
 import { missing } from './workspace-http'
 import { isoDay, isoTime, isoTimeRequired } from './workspace-rows'
 
@@ -78,26 +79,22 @@ async function uniqueSlug(db: Db, title: string): Promise<string> {
 }
 
 export async function createBenchTest(db: Knex, ownerId: number, input: CreateBenchTestInput): Promise<BenchTest> {
-  for (let attempt = 0; ; attempt++) {
-    try {
-      const [id] = await db('bench_tests').insert({
-        slug: await uniqueSlug(db, input.title),
-        title: input.title,
-        engine_family: input.engineFamily,
-        part_type: input.partType,
-        shop: input.shop ?? '',
-        dyno: input.dyno ?? '',
-        tested_from: input.testedFrom ?? null,
-        tested_to: input.testedTo ?? null,
-        notes: input.notes ?? '',
-        owner_id: ownerId,
-        default_standard: input.defaultStandard ?? 'sae-j1349-1990',
-      })
-      return benchTestById(db, Number(id))
-    }
-    catch (error) {
-      // Two writers choosing the same title at once: take the next free slug.
-      if ((error as { code?: string }).code !== 'ER_DUP_ENTRY' || attempt >= 3) throw error
-    }
-  }
+  // Two writers choosing the same title at once: the later one takes the next free slug.
+  const id = await withFreeSlug(async () => {
+    const [inserted] = await db('bench_tests').insert({
+      slug: await uniqueSlug(db, input.title),
+      title: input.title,
+      engine_family: input.engineFamily,
+      part_type: input.partType,
+      shop: input.shop ?? '',
+      dyno: input.dyno ?? '',
+      tested_from: input.testedFrom ?? null,
+      tested_to: input.testedTo ?? null,
+      notes: input.notes ?? '',
+      owner_id: ownerId,
+      default_standard: input.defaultStandard ?? 'sae-j1349-1990',
+    })
+    return Number(inserted)
+  })
+  return benchTestById(db, id)
 }

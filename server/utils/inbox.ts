@@ -3,8 +3,9 @@
 import type { Knex } from 'knex'
 import type { ColumnRole, CorrectionStandard } from '../../shared/dyno/index'
 import type { AssignInboxInput, InboxFile, InboxState, PullFilePreview } from '../../shared/types/workspace'
-import { checkPullFile, decodeUploadedBytes } from './pull-check'
+import { decodeUploadedBytes } from './pull-check'
 import { checkPullBatch, insertCheckedPulls } from './pull-import'
+import { checkUploadedFiles } from './pull-pool'
 import { httpError, missing } from './workspace-http'
 import { isoTimeRequired, parseJsonColumn } from './workspace-rows'
 
@@ -64,8 +65,9 @@ async function inboxText(db: Db, fileId: number): Promise<{ text: string, bytes:
 /** The stored file checked again, with a column mapping; nothing is saved. */
 export async function previewInboxFile(db: Db, benchTestId: number, fileId: number, mapping?: Record<string, ColumnRole>): Promise<PullFilePreview> {
   const file = await inboxFile(db, benchTestId, fileId)
-  const { text, bytes } = await inboxText(db, fileId)
-  return checkPullFile({ name: file.fileName, text, bytes, mapping }).preview
+  const row = await db('inbox_files').where({ id: fileId }).first('content') as { content: Buffer }
+  const [preview] = await checkUploadedFiles([{ name: file.fileName, bytes: row.content, mapping }])
+  return preview!
 }
 
 /** Every item becomes a pull, in one transaction, or none does. Returns the pull ids in order. */

@@ -4,9 +4,10 @@
 import { createHash, randomBytes } from 'node:crypto'
 import type { Knex } from 'knex'
 import { OPERATOR_LINK_LIMITS, PULL_LIMITS, type CreatedOperatorLink, type CreateOperatorLinkInput, type OperatorLink, type OperatorLinkState, type UploadLinkInfo, type UploadReceipt } from '../../shared/types/workspace'
-import { checkPullFile, decodeUploadedBytes } from './pull-check'
+import { decodeUploadedBytes } from './pull-check'
 import { fileArrivalIntoPlan } from './dyno-day-filing'
 import { bumpLiveMark } from './live-marks'
+import { checkUploadedFiles } from './pull-pool'
 import { httpError, missing } from './workspace-http'
 import { asBool, isoTime, isoTimeRequired } from './workspace-rows'
 
@@ -105,6 +106,15 @@ async function usableLink(db: Db, token: string, opts: { lock?: boolean } = {}):
   return row
 }
 
+/**
+ * The checks an upload makes before reading any of its body: an unknown, expired,
+ * revoked or used-up link costs a database lookup and nothing else.
+ */
+export async function openUploadLink(db: Db, token: string): Promise<{ maxFileBytes: number, filesLeft: number }> {
+  const row = await usableLink(db, token)
+  return { maxFileBytes: row.max_file_bytes, filesLeft: row.max_files - row.files_received }
+}
+
 export async function uploadLinkInfo(db: Db, token: string): Promise<UploadLinkInfo> {
   const row = await usableLink(db, token)
   return {
@@ -133,6 +143,8 @@ export interface UploadedFile { name: string, data: Uint8Array }
 export async function receiveUploads(db: Knex, token: string, files: readonly UploadedFile[]): Promise<UploadReceipt> {
   if (files.length === 0) throw httpError(400, 'No file was sent: attach one or more CSV files as "file".')
   if (files.length > PULL_LIMITS.maxFilesPerBatch) throw httpError(400, `Send at most ${PULL_LIMITS.maxFilesPerBatch} files at once.`)
+  // Checked in the worker pool before the link row is locked: a slow check holds no lock.
+  const previews = await checkUploadedFiles(files.map(f => ({ name: f.name, bytes: f.data })))
   return db.transaction(async (trx) => {
     const link = await usableLink(trx, token, { lock: true })
     for (const f of files) {
@@ -151,21 +163,21 @@ export async function receiveUploads(db: Knex, token: string, files: readonly Up
       throw httpError(429, `This link takes at most ${OPERATOR_LINK_LIMITS.rateFiles} files per ${OPERATOR_LINK_LIMITS.rateMinutes} minutes. Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`, { retryAfterSeconds })
     }
     const received: UploadReceipt['received'] = []
-    for (const f of files) {
+    for (const [i, f] of files.entries()) {
+      const preview = previews[i]!
       const text = decodeUploadedBytes(f.data)
-      const checked = checkPullFile({ name: f.name, text, bytes: f.data.byteLength })
       const [inboxId] = await trx('inbox_files').insert({
         bench_test_id: link.bench_test_id,
         operator_link_id: link.id,
         file_name: f.name,
         content: Buffer.from(f.data.buffer, f.data.byteOffset, f.data.byteLength),
         size_bytes: f.data.byteLength,
-        preview: JSON.stringify(checked.preview),
-        ok: checked.preview.ok,
+        preview: JSON.stringify(preview),
+        ok: preview.ok,
       })
       // During a dyno day the file goes straight to the plan's current setup (server/utils/dyno-day.ts).
-      const filedTo = checked.preview.ok ? await fileArrivalIntoPlan(trx, link.bench_test_id, link.id, Number(inboxId), { name: f.name, text, bytes: f.data.byteLength, weather: checked.preview.weather }) : null
-      received.push({ name: f.name, sizeBytes: f.data.byteLength, ok: checked.preview.ok, problemCount: checked.preview.problems.length, ...(filedTo ? { filedTo } : {}) })
+      const filedTo = preview.ok ? await fileArrivalIntoPlan(trx, link.bench_test_id, link.id, Number(inboxId), { name: f.name, text, bytes: f.data.byteLength, weather: preview.weather }) : null
+      received.push({ name: f.name, sizeBytes: f.data.byteLength, ok: preview.ok, problemCount: preview.problems.length, ...(filedTo ? { filedTo } : {}) })
     }
     await trx('operator_links').where({ id: link.id }).update({ files_received: trx.raw('files_received + ?', [files.length]) })
     await bumpLiveMark(trx, link.bench_test_id)

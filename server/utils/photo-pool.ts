@@ -1,10 +1,8 @@
 import { fork } from 'node:child_process'
-import { existsSync } from 'node:fs'
 import { setPriority } from 'node:os'
 import type { Readable } from 'node:stream'
-import { dirname, join } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import { Worker } from 'node:worker_threads'
+import { findWorkerFile } from './worker-files'
 
 // Photo decoding blocks a thread for seconds and takes about 900 MB for 24 MP, so
 // it runs off the server's event loop, one or two photos at a time, each worker
@@ -55,23 +53,11 @@ export function photoPoolSize(): number {
   return Number.isFinite(wanted) ? Math.min(2, Math.max(1, Math.round(wanted))) : 1
 }
 
-const WORKER_FILE = join('workers', 'photo-worker.mjs')
-let workerFile: string | undefined
-
-/**
- * Where the worker file is: beside the built server (.output/server/workers/, put
- * there by the build hook in nuxt.config.ts) or in the sources during development.
- * Searched upwards from this chunk, whose depth inside .output varies.
- */
+/** The worker file (see findWorkerFile), or a clear failure when the build left it out. */
 export function photoWorkerFile(): string {
-  if (workerFile) return workerFile
-  const candidates: string[] = process.env.PHOTO_WORKER_FILE ? [process.env.PHOTO_WORKER_FILE] : []
-  for (let dir = dirname(fileURLToPath(import.meta.url)), i = 0; i < 6; dir = dirname(dir), i++) {
-    candidates.push(join(dir, WORKER_FILE), join(dir, 'server', WORKER_FILE))
-  }
-  workerFile = candidates.find(existsSync)
-  if (!workerFile) throw new PhotoTaskError('The photo worker is not installed with this server (workers/photo-worker.mjs is missing).', false)
-  return workerFile
+  const file = findWorkerFile('photo-worker.mjs', process.env.PHOTO_WORKER_FILE)
+  if (!file) throw new PhotoTaskError('The photo worker is not installed with this server (workers/photo-worker.mjs is missing).', false)
+  return file
 }
 
 /** Test-only faults, honoured only with PULLSHEET_TEST_HOOKS=1. */

@@ -23,6 +23,7 @@ export interface RuntimeStats {
   eventLoop: { sinceMs: number, maxDelayMs: number, p99DelayMs: number, meanDelayMs: number }
   memory: { rssMb: number, heapUsedMb: number, externalMb: number, arrayBuffersMb: number }
   photoJobs: { active: number }
+  pullChecks: { threads: number, running: number, queued: number }
 }
 
 export function runtimeStats(): RuntimeStats {
@@ -37,5 +38,6 @@ export function runtimeStats(): RuntimeStats {
     },
     memory: { rssMb: mb(memory.rss), heapUsedMb: mb(memory.heapUsed), externalMb: mb(memory.external), arrayBuffersMb: mb(memory.arrayBuffers) },
     photoJobs: { active: photoJobsActive() },
+    pullChecks: pullCheckStats(),
   }
 }

@@ -55,9 +55,9 @@ export async function createStoryDraft(user: CurrentUser, input: CreateStoryInpu
   const benchTest = await requireBenchTest(user, input.benchTestId)
   const bylineIds = input.bylineIds ?? [user.id]
   await checkBylines(db, user, bylineIds)
-  for (let attempt = 0; ; attempt++) {
+  const id = await withFreeSlug(async () => {
     try {
-      const id = await storyTransaction(async (trx) => {
+      return await storyTransaction(async (trx) => {
         const slug = input.slug ?? await freeSlug(trx, input.headline)
         const [storyId] = await trx('stories').insert({
           bench_test_id: benchTest.id,
@@ -77,15 +77,14 @@ export async function createStoryDraft(user: CurrentUser, input: CreateStoryInpu
         await writeRevision(trx, row, 'created', user.id)
         return idNum
       })
-      return getStory(user, id)
     }
     catch (error) {
-      if (!isDuplicateEntry(error)) throw error
-      if (input.slug) slugTaken(input.slug)
-      // Two stories with one headline at once: the next try takes the next free slug.
-      if (attempt >= 3) throw error
+      // A slug the writer chose is theirs to change; a derived one moves on to the next free one.
+      if (input.slug && isDuplicateEntry(error)) slugTaken(input.slug)
+      throw error
     }
-  }
+  })
+  return getStory(user, id)
 }
 
 const FIELD_COLUMNS = {

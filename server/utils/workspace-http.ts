@@ -9,7 +9,7 @@ export function httpError(statusCode: number, message: string, data?: unknown): 
 }
 
 const STATUS_TEXT: Record<number, string> = {
-  400: 'Bad Request', 404: 'Not Found', 409: 'Conflict', 410: 'Gone', 413: 'Content Too Large', 422: 'Unprocessable Content', 429: 'Too Many Requests',
+  400: 'Bad Request', 404: 'Not Found', 409: 'Conflict', 410: 'Gone', 413: 'Content Too Large', 415: 'Unsupported Media Type', 422: 'Unprocessable Content', 429: 'Too Many Requests', 503: 'Service Unavailable',
 }
 
 export function missing(what: string): never {

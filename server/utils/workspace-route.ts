@@ -9,9 +9,6 @@ export const BenchTestParams = z.object({ id: IdSchema })
 export const SetupParams = z.object({ id: IdSchema, setupId: IdSchema })
 export const PullParams = z.object({ id: IdSchema, pullId: IdSchema })
 
-/** Largest JSON body an import takes: 20 files of 5 MB, with room for JSON escaping. */
-export const MAX_IMPORT_BODY_BYTES = 60 * 1024 * 1024
-
 /**
  * The start of every workspace route: a writer or above, valid route parameters, and
  * the bench test reachable by this user (404 for another writer's).
@@ -21,14 +18,6 @@ export async function requireWorkspace<T extends { id: number }>(event: H3Event,
   const parsed = await getValidatedRouterParams(event, zodParser(params))
   const benchTest = await requireBenchTest(user, parsed.id)
   return { user, params: parsed, benchTest }
-}
-
-/** 413 before reading a body whose declared size is over the limit. */
-export function assertBodySize(event: H3Event, maxBytes: number): void {
-  const length = Number(getRequestHeader(event, 'content-length') ?? 0)
-  if (length > maxBytes) {
-    throw createError({ statusCode: 413, statusMessage: 'Content Too Large', message: `The request is ${(length / 1024 / 1024).toFixed(1)} MB; at most ${(maxBytes / 1024 / 1024).toFixed(0)} MB are taken at once. Send fewer files per batch.` })
-  }
 }
 
 export function sendCsvFile(event: H3Event, fileName: string, text: string): string {

@@ -2,7 +2,6 @@ import { CommitPullsBody, type CommitPullsResponse } from '#shared/types/workspa
 
 export default defineEventHandler(async (event): Promise<CommitPullsResponse> => {
   const { user, params } = await requireWorkspace(event, BenchTestParams)
-  assertBodySize(event, MAX_IMPORT_BODY_BYTES)
   const { files } = await readValidatedBody(event, batchParser(CommitPullsBody, 'files', input => listOf(input, 'files').map(f => nameOf(f, 'name'))))
   const ids = await importPulls(useDb(), params.id, files, { userId: user.id })
   setResponseStatus(event, 201)

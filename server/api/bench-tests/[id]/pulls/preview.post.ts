@@ -1,9 +1,10 @@
-import { PreviewPullsBody, type PreviewPullsResponse } from '#shared/types/workspace'
+import type { PreviewPullsResponse } from '#shared/types/workspace'
 
-// Parses and checks; nothing is saved.
+// Parses and checks; nothing is saved. The body goes to the check pool as received:
+// parsing 60 MB of JSON and validating it (PreviewPullsBody, in the worker) would hold
+// up the event loop as long as the check itself.
 export default defineEventHandler(async (event): Promise<PreviewPullsResponse> => {
   await requireWorkspace(event, BenchTestParams)
-  assertBodySize(event, MAX_IMPORT_BODY_BYTES)
-  const { files } = await readValidatedBody(event, zodParser(PreviewPullsBody))
-  return { files: files.map(f => checkPullFile(f).preview) }
+  const body = await readLimitedBody(event, MAX_IMPORT_BODY_BYTES)
+  return { files: await checkPreviewBody(body) }
 })
