@@ -25,16 +25,20 @@ export function cleanUploadName(raw: string | undefined): string {
 /**
  * Reads one file from a multipart body (part "file"), streaming: h3's own reader
  * copies the body byte by byte into a JS array, far too slow and big for 40 MB.
- * Hashes while reading; refuses a body over the limit as soon as it passes it
- * (server/utils/body-limit.ts counts the bytes, chunked or not).
+ * Hashes while reading; refuses a body over the limit before taking it in.
  */
 export function readPhotoUpload(event: H3Event): Promise<PhotoUpload> {
   const type = getRequestHeader(event, 'content-type') ?? ''
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: 'Send the photo as multipart/form-data in a part named "file".' })
   }
+  const declared = Number(getRequestHeader(event, 'content-length'))
+  if (!Number.isFinite(declared) || declared <= 0) {
+    throw createError({ statusCode: 411, statusMessage: 'Length Required', message: 'The upload must say its length (Content-Length).' })
+  }
+  if (declared > PHOTO_MAX_BYTES + MULTIPART_OVERHEAD) throw tooLarge()
+
   const req = event.node.req
-  const body = limitedBody(event, PHOTO_MAX_BYTES + MULTIPART_OVERHEAD)
   return new Promise((resolve, reject) => {
     const parser = Busboy({
       headers: req.headers,
@@ -42,16 +46,7 @@ export function readPhotoUpload(event: H3Event): Promise<PhotoUpload> {
       limits: { files: 1, fileSize: PHOTO_MAX_BYTES, fields: 10, fieldSize: 10_000, parts: 12 },
     })
     let upload: PhotoUpload | undefined
-    let settled = false
-    // The first refusal ends the upload: the parser gets nothing more, the rest of the body is not read.
-    const fail = (error: Error) => {
-      if (settled) return
-      settled = true
-      stopReadingBody(event)
-      body.unpipe(parser)
-      parser.on('error', () => { /* left behind on purpose */ })
-      reject(error)
-    }
+    let failure: Error | undefined
 
     parser.on('file', (name, stream, info) => {
       if (name !== 'file') {
@@ -66,20 +61,19 @@ export function readPhotoUpload(event: H3Event): Promise<PhotoUpload> {
         size += chunk.length
         hash.update(chunk)
       })
-      stream.on('limit', () => fail(tooLarge()))
+      stream.on('limit', () => { failure ??= tooLarge() })
       stream.on('end', () => {
-        if (!settled) upload = { bytes: Buffer.concat(chunks, size), sha256: hash.digest('hex'), filename: cleanUploadName(info.filename) }
+        if (!failure) upload = { bytes: Buffer.concat(chunks, size), sha256: hash.digest('hex'), filename: cleanUploadName(info.filename) }
       })
     })
-    parser.on('filesLimit', () => fail(badUpload('Send one photo per request.')))
-    parser.on('error', () => fail(badUpload('The upload could not be read: the request was cut off or is not valid multipart data.')))
+    parser.on('filesLimit', () => { failure ??= badUpload('Send one photo per request.') })
+    parser.on('error', () => reject(badUpload('The upload could not be read: the request was cut off or is not valid multipart data.')))
     parser.on('close', () => {
-      if (settled) return
-      settled = true
-      if (!upload) reject(badUpload('No file in the upload: send the photo in a part named "file".'))
+      if (failure) reject(failure)
+      else if (!upload) reject(badUpload('No file in the upload: send the photo in a part named "file".'))
       else resolve(upload)
     })
-    body.once('error', (error: Error) => fail((error as { statusCode?: number }).statusCode === 413 ? tooLarge() : badUpload('The upload was cut off before it finished.')))
-    body.pipe(parser)
+    req.on('aborted', () => reject(badUpload('The upload was cut off before it finished.')))
+    req.pipe(parser)
   })
 }
