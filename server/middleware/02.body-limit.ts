@@ -1,13 +1,20 @@
-import { bodyLimitFor, readLimitedBody } from '../utils/body-limit'
+import { bodyLimitFor, bodyUntouched, lingerAfterAnswer, readLimitedBody } from '../utils/body-limit'
 
-const BODY_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
+// h3's readRawBody (under readBody, readValidatedBody, readMultipartFormData, and
+// readFormData through getRequestWebStream) takes a body already set on the request
+// under this symbol, resolving it as a thenable. Handing it the limited reader makes
+// every route's body go through it. It is lazy: nothing is read until a handler asks,
+// so a route checks its token or its user before a byte of the body is taken in.
+const RAW_BODY = Symbol.for('h3RawBody')
 
-// Every route's body goes through the limited reader: h3's readRawBody (under readBody,
-// readValidatedBody and readMultipartFormData) takes `event._requestBody` when it is
-// set, and resolves it as a thenable. Nothing is read until a handler asks, so a route
-// can check its token or its user before a byte of the body is taken in.
 export default defineEventHandler((event) => {
-  if (!BODY_METHODS.has(event.method)) return
+  const req = event.node.req as typeof event.node.req & Record<symbol | string, unknown>
+  // Requests Nitro makes to itself ($fetch inside a render) carry their body in memory already.
+  if ('__unenv__' in req || 'body' in req || 'rawBody' in req || RAW_BODY in req) return
+  // Whatever the route does, a body it leaves unread is dropped, bounded, after the answer.
+  event.node.res.once('finish', () => {
+    if (bodyUntouched(event) && !req.complete) lingerAfterAnswer(event)
+  })
   const maxBytes = bodyLimitFor(event.path)
   let reading: Promise<Buffer> | undefined
   const lazyBody: PromiseLike<Buffer> = {
@@ -16,5 +23,5 @@ export default defineEventHandler((event) => {
       return reading.then(onFulfilled, onRejected)
     },
   }
-  ;(event as unknown as { _requestBody: unknown })._requestBody = lazyBody
+  req[RAW_BODY] = lazyBody
 })

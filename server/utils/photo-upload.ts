@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto'
 import Busboy from 'busboy'
+import type { Readable } from 'node:stream'
 import type { H3Event } from 'h3'
 import { PHOTO_ACCEPTED_TEXT, PHOTO_MAX_BYTES } from '#shared/types/photos'
 
@@ -9,9 +10,6 @@ export interface PhotoUpload {
   /** The name the browser gave, for display only; keys never come from it. */
   filename: string
 }
-
-// Room for the multipart boundaries and part headers around one 40 MB file.
-const MULTIPART_OVERHEAD = 64 * 1024
 
 const tooLarge = () => createError({ statusCode: 413, statusMessage: 'Payload Too Large', message: `The file is larger than 40 MB. ${PHOTO_ACCEPTED_TEXT}` })
 const badUpload = (message: string) => createError({ statusCode: 400, statusMessage: 'Bad Request', message })
@@ -25,28 +23,45 @@ export function cleanUploadName(raw: string | undefined): string {
 /**
  * Reads one file from a multipart body (part "file"), streaming: h3's own reader
  * copies the body byte by byte into a JS array, far too slow and big for 40 MB.
- * Hashes while reading; refuses a body over the limit before taking it in.
+ * Hashes while reading. The bytes come through the one limited reader
+ * (server/utils/body-limit.ts): a body past 40 MB is refused as it passes the limit,
+ * chunked or not, and a declared length over it before anything is read.
  */
 export function readPhotoUpload(event: H3Event): Promise<PhotoUpload> {
   const type = getRequestHeader(event, 'content-type') ?? ''
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: 'Send the photo as multipart/form-data in a part named "file".' })
   }
-  const declared = Number(getRequestHeader(event, 'content-length'))
-  if (!Number.isFinite(declared) || declared <= 0) {
-    throw createError({ statusCode: 411, statusMessage: 'Length Required', message: 'The upload must say its length (Content-Length).' })
-  }
-  if (declared > PHOTO_MAX_BYTES + MULTIPART_OVERHEAD) throw tooLarge()
-
-  const req = event.node.req
-  return new Promise((resolve, reject) => {
-    const parser = Busboy({
-      headers: req.headers,
+  let parser: Busboy.Busboy
+  try {
+    parser = Busboy({
+      headers: event.node.req.headers,
       defParamCharset: 'utf8',
       limits: { files: 1, fileSize: PHOTO_MAX_BYTES, fields: 10, fieldSize: 10_000, parts: 12 },
     })
+  }
+  catch {
+    throw badUpload('The upload is not valid multipart data (no boundary).')
+  }
+  let body: Readable
+  try {
+    body = limitedBody(event)
+  }
+  catch (error) {
+    throw (error as { statusCode?: number }).statusCode === 413 ? tooLarge() : error
+  }
+  return new Promise((resolve, reject) => {
     let upload: PhotoUpload | undefined
-    let failure: Error | undefined
+    let settled = false
+    // The first refusal ends the upload: the parser gets nothing more, the rest of the body is dropped.
+    const fail = (error: Error) => {
+      if (settled) return
+      settled = true
+      body.unpipe(parser)
+      stopReadingBody(event)
+      parser.on('error', () => { /* left behind on purpose */ })
+      reject(error)
+    }
 
     parser.on('file', (name, stream, info) => {
       if (name !== 'file') {
@@ -61,19 +76,20 @@ export function readPhotoUpload(event: H3Event): Promise<PhotoUpload> {
         size += chunk.length
         hash.update(chunk)
       })
-      stream.on('limit', () => { failure ??= tooLarge() })
+      stream.on('limit', () => fail(tooLarge()))
       stream.on('end', () => {
-        if (!failure) upload = { bytes: Buffer.concat(chunks, size), sha256: hash.digest('hex'), filename: cleanUploadName(info.filename) }
+        if (!settled) upload = { bytes: Buffer.concat(chunks, size), sha256: hash.digest('hex'), filename: cleanUploadName(info.filename) }
       })
     })
-    parser.on('filesLimit', () => { failure ??= badUpload('Send one photo per request.') })
-    parser.on('error', () => reject(badUpload('The upload could not be read: the request was cut off or is not valid multipart data.')))
+    parser.on('filesLimit', () => fail(badUpload('Send one photo per request.')))
+    parser.on('error', () => fail(badUpload('The upload could not be read: the request was cut off or is not valid multipart data.')))
     parser.on('close', () => {
-      if (failure) reject(failure)
-      else if (!upload) reject(badUpload('No file in the upload: send the photo in a part named "file".'))
+      if (settled) return
+      settled = true
+      if (!upload) reject(badUpload('No file in the upload: send the photo in a part named "file".'))
       else resolve(upload)
     })
-    req.on('aborted', () => reject(badUpload('The upload was cut off before it finished.')))
-    req.pipe(parser)
+    body.once('error', (error: Error) => fail((error as { statusCode?: number }).statusCode === 413 ? tooLarge() : badUpload('The upload was cut off before it finished.')))
+    body.pipe(parser)
   })
 }

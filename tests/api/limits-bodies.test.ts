@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { streamBody } from '../support/streaming'
+import { makeJpeg } from '../support/photos'
 import { createBenchTest, DEMO, expectOk, newWriter, pullCsv, uploadFiles } from '../support/workspace'
 
 afterAll(closeTestDb)
@@ -58,12 +59,21 @@ describe('body limits', () => {
     expect(res.sentBeforeAnswer).toBeLessThan(60 * MB + IN_FLIGHT)
   })
 
-  it('refuses a chunked photo upload at once (photos must say their length, and Node holds them to it)', async () => {
+  it('cuts off a chunked photo upload at 40 MB, and takes a chunked photo under it', async () => {
     const boundary = 'x-limits-boundary'
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="big.jpg"\r\nContent-Type: image/jpeg\r\n\r\n`
     const res = await streamBody(`/api/bench-tests/${benchTestId}/photos`, { headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': writer.cookie }, head, totalBytes: 300 * MB })
-    expect(res.status).toBe(411)
-    expect(res.sentBeforeAnswer).toBeLessThan(IN_FLIGHT)
+    expect(res.status).toBe(413)
+    expect(res.sentBeforeAnswer).toBeLessThan(40 * MB + IN_FLIGHT)
+
+    // The same route through the same reader, chunked (no Content-Length), under the limit.
+    const form = new FormData()
+    form.append('file', new Blob([new Uint8Array(await makeJpeg(320, 200))], { type: 'image/jpeg' }), 'chunked.jpg')
+    const bytes = new Uint8Array(await new Response(form).arrayBuffer())
+    const type = new Response(form).headers.get('content-type')!
+    const chunked = new ReadableStream({ start(c) { for (let i = 0; i < bytes.length; i += 4096) c.enqueue(bytes.subarray(i, i + 4096)); c.close() } })
+    const ok = await fetch(`${writer.base}/api/bench-tests/${benchTestId}/photos`, { method: 'POST', headers: { 'content-type': type, 'cookie': writer.cookie, 'origin': new URL(writer.base).origin }, body: chunked, duplex: 'half' } as RequestInit)
+    expect(ok.status).toBe(201)
   })
 
   it('keeps the server up and small while bodies are refused side by side', async () => {

@@ -1,10 +1,10 @@
 import type { PreviewPullsResponse } from '#shared/types/workspace'
 
-// Parses and checks; nothing is saved. The body goes to the check pool as received:
-// parsing 60 MB of JSON and validating it (PreviewPullsBody, in the worker) would hold
-// up the event loop as long as the check itself.
+// Parses and checks; nothing is saved. The body goes to the check pool as received
+// (60 MB at most, server/utils/body-limit.ts): parsing 60 MB of JSON and validating
+// it (PreviewPullsBody, in the worker) would hold up the event loop as long as the check.
 export default defineEventHandler(async (event): Promise<PreviewPullsResponse> => {
   await requireWorkspace(event, BenchTestParams)
-  const body = await readLimitedBody(event, MAX_IMPORT_BODY_BYTES)
+  const body = await readLimitedBody(event)
   return { files: await checkPreviewBody(body) }
 })
