@@ -4,6 +4,7 @@
 import type { Knex } from 'knex'
 import { LOCK_EXPIRES_SECONDS, type LockResponse, type StoryLock } from '#shared/types/stories'
 import type { CurrentUser } from '#shared/types/users'
+import { mayEditContent } from '#shared/types/story-workflow'
 
 export interface LockRow { story_id: number, user_id: number, display_name: string, since: Date | string, heartbeat_at: Date | string, expires_at: Date | string }
 
@@ -25,10 +26,21 @@ export function liveLockRows(db: Knex | Knex.Transaction, storyIds: number[]): P
     .select('story_locks.*', 'users.display_name') as Promise<LockRow[]>
 }
 
-/** Takes the lock or refreshes it; someone else's live lock is only replaced with takeOver. */
+/**
+ * Takes the lock or refreshes it; someone else's live lock is only replaced with
+ * takeOver. Only someone who may change the story in its state takes it at all: a
+ * byline writer looking at a story with the desk (or published) sees who holds it,
+ * and asking to take it over is refused (409).
+ */
 export async function takeStoryLock(user: CurrentUser, storyId: number, takeOver = false): Promise<LockResponse> {
   const db = useDb()
-  await requireStoryRow(db, user, storyId)
+  const story = await requireStoryRow(db, user, storyId)
+  const own = await db('story_bylines').where({ story_id: storyId, user_id: user.id }).first('user_id')
+  if (!mayEditContent(story.state, user.role, Boolean(own))) {
+    if (takeOver) throw httpError(409, 'You cannot change this story in its state, so you cannot take over its editing lock.')
+    const [current] = await liveLockRows(db, [storyId])
+    return { lock: current ? toStoryLock(current) : null, heldByMe: current?.user_id === user.id }
+  }
   for (let attempt = 0; ; attempt++) {
     try {
       await db.transaction(async (trx) => {
