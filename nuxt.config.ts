@@ -1,5 +1,6 @@
 // https://nuxt.com/docs/api/configuration/nuxt-config
 import { fileURLToPath } from 'node:url'
+import { STAFF_COLLECTIONS } from './shared/types/content'
 
 export default defineNuxtConfig({
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/content', '@nuxt/eslint'],
@@ -85,6 +86,20 @@ export default defineNuxtConfig({
     'nitro:config'(config) {
       delete config.runtimeConfig?.oauth
       delete config.runtimeConfig?.webauthn
+      // nuxt-auth-utils' own /api/_auth/session routes are not used (sign-in state comes
+      // from /api/auth/me, sign-out is POST /api/auth/logout) and were not honest: a GET
+      // gave an anonymous visitor a session cookie, a DELETE cleared the cookie but left
+      // the session valid. Left out, the address answers 404 like any unknown route.
+      config.handlers = (config.handlers ?? []).filter(handler => handler.route !== '/api/_auth/session')
+      // @nuxt/content prerenders each collection's SQL dump into the public files, which
+      // are served before any server middleware: the desk's collections must not be
+      // there. Their dump is then served by the module's route, behind
+      // server/middleware/03.content-privacy.ts.
+      for (const collection of STAFF_COLLECTIONS) {
+        const dump = `/__nuxt_content/${collection}/sql_dump.txt`
+        config.routeRules = { ...config.routeRules, [dump]: { ...config.routeRules?.[dump], prerender: false } }
+        if (config.prerender?.routes) config.prerender.routes = config.prerender.routes.filter(route => !route.startsWith(`/__nuxt_content/${collection}/`))
+      }
     },
   },
   eslint: { config: { stylistic: true } },
