@@ -10,10 +10,9 @@ export function useAuthActions() {
     await navigateTo(safeNext(next))
   }
 
-  async function register(body: z.input<typeof RegisterBody>, next?: unknown) {
+  /** Nothing is signed in: the account is finished from the link in the mail. */
+  async function register(body: z.input<typeof RegisterBody>) {
     await $fetch('/api/auth/register', { method: 'POST', body })
-    await refreshNuxtData(currentUserKey())
-    await navigateTo(safeNext(next))
   }
 
   async function logout() {

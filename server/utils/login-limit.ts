@@ -1,42 +1,70 @@
 import type { H3Event } from 'h3'
 
-// Common practice: a handful of tries per account, more per address (shared NATs).
-const WINDOW_MINUTES = 15
-const MAX_PER_ACCOUNT = 5
-const MAX_PER_IP = 20
+// One limiter for every account route: attempts are rows in MariaDB (so the limit
+// holds across app servers), counted per address (e-mail) and per client IP over a
+// window. Sign-ins and wrong current passwords count failures; registrations and
+// reset requests count every request (each one sends a mail); reset confirmations
+// count the tries with a link that does not work.
+export type AttemptKind = 'login' | 'register' | 'reset-request' | 'reset-confirm'
+
+interface AttemptRule {
+  windowMinutes: number
+  /** Per e-mail address; absent when the attempt has none (a reset link). */
+  perAddress?: number
+  perIp: number
+  refusal: string
+}
+
+// Common practice: a handful of tries per account, more per IP (shared NATs); mails
+// to one address are few per hour.
+export const ATTEMPT_RULES: Record<AttemptKind, AttemptRule> = {
+  'login': { windowMinutes: 15, perAddress: 5, perIp: 20, refusal: 'Too many failed sign-ins.' },
+  'register': { windowMinutes: 60, perAddress: 3, perIp: 10, refusal: 'Too many sign-ups from here.' },
+  'reset-request': { windowMinutes: 60, perAddress: 3, perIp: 10, refusal: 'Too many password reset requests.' },
+  'reset-confirm': { windowMinutes: 15, perIp: 10, refusal: 'Too many tries with links that do not work.' },
+}
 
 export function clientIp(event: H3Event): string {
   return getRequestIP(event, { xForwardedFor: process.env.TRUST_PROXY === '1' }) ?? 'unknown'
 }
 
-/** Throws 429 with a retry time when this account or address has failed too often. */
-export async function assertLoginAllowed(event: H3Event, email: string, ip: string): Promise<void> {
+const normalAddress = (email: string) => email.trim().toLowerCase().slice(0, 254)
+
+/** Throws 429 with a retry time when this address or IP has used up the kind's attempts. */
+export async function assertAttemptAllowed(event: H3Event, kind: AttemptKind, email: string | null, ip: string): Promise<void> {
+  const rule = ATTEMPT_RULES[kind]
   const db = useDb()
-  const since = db.raw('NOW(3) - INTERVAL ? MINUTE', [WINDOW_MINUTES])
-  const [byEmail, byIp] = await Promise.all([
-    db('login_failures').where('email', email).where('failed_at', '>', since).count({ n: '*' }).min({ first: 'failed_at' }).first(),
-    db('login_failures').where('ip', ip).where('failed_at', '>', since).count({ n: '*' }).min({ first: 'failed_at' }).first(),
+  const since = db.raw('NOW(3) - INTERVAL ? MINUTE', [rule.windowMinutes])
+  const counted = (column: 'email' | 'ip', value: string) => db('login_failures').where({ kind, [column]: value })
+    .where('failed_at', '>', since).count({ n: '*' }).min({ first: 'failed_at' }).first()
+  const [byAddress, byIp] = await Promise.all([
+    email !== null && rule.perAddress ? counted('email', normalAddress(email)) : undefined,
+    counted('ip', ip.slice(0, 64)),
   ])
   const blocked = [
-    { n: Number(byEmail?.n ?? 0), first: byEmail?.first, max: MAX_PER_ACCOUNT },
-    { n: Number(byIp?.n ?? 0), first: byIp?.first, max: MAX_PER_IP },
+    { n: Number(byAddress?.n ?? 0), first: byAddress?.first, max: rule.perAddress ?? Infinity },
+    { n: Number(byIp?.n ?? 0), first: byIp?.first, max: rule.perIp },
   ].filter(b => b.n >= b.max)
   if (blocked.length === 0) return
   const firstMs = Math.min(...blocked.map(b => new Date(b.first as unknown as string).getTime()))
-  const retryAfterSeconds = Math.max(1, Math.ceil((firstMs + WINDOW_MINUTES * 60_000 - Date.now()) / 1000))
+  const retryAfterSeconds = Math.max(1, Math.ceil((firstMs + rule.windowMinutes * 60_000 - Date.now()) / 1000))
   setResponseHeader(event, 'Retry-After', retryAfterSeconds)
   throw createError({
     statusCode: 429,
     statusMessage: 'Too Many Requests',
-    message: `Too many failed sign-ins. Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
+    message: `${rule.refusal} Try again in ${Math.ceil(retryAfterSeconds / 60)} minute(s).`,
     data: { retryAfterSeconds },
   })
 }
 
-export async function recordLoginFailure(email: string, ip: string): Promise<void> {
-  await useDb()('login_failures').insert({ email: email.slice(0, 254), ip: ip.slice(0, 64) })
+export async function recordAttempt(kind: AttemptKind, email: string | null, ip: string): Promise<void> {
+  await useDb()('login_failures').insert({ kind, email: email === null ? '' : normalAddress(email), ip: ip.slice(0, 64) })
 }
 
-export async function clearLoginFailures(email: string): Promise<void> {
-  await useDb()('login_failures').where('email', email).delete()
+export async function clearAttempts(kind: AttemptKind, email: string): Promise<void> {
+  await useDb()('login_failures').where({ kind, email: normalAddress(email) }).delete()
 }
+
+export const assertLoginAllowed = (event: H3Event, email: string, ip: string) => assertAttemptAllowed(event, 'login', email, ip)
+export const recordLoginFailure = (email: string, ip: string) => recordAttempt('login', email, ip)
+export const clearLoginFailures = (email: string) => clearAttempts('login', email)

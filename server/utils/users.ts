@@ -89,10 +89,21 @@ export async function verifyUserPassword(id: number, password: string): Promise<
   return Boolean(row?.password_hash) && await verifyPassword(row!.password_hash!, password)
 }
 
-/** New password; every other session of this user ends (session version bumped). */
+/**
+ * New password; every other session of this user ends (session version bumped) and
+ * every reset or invitation link still open for the account stops working.
+ */
 export async function setPassword(id: number, password: string): Promise<number> {
-  await useDb()('users').where({ id }).update({ password_hash: await hashPassword(password) })
+  const passwordHash = await hashPassword(password)
+  await useDb().transaction(async (trx) => {
+    await trx('users').where({ id }).update({ password_hash: passwordHash })
+    await cancelOpenTokens(trx, id)
+  })
   return bumpSessionVersion(id)
+}
+
+function cancelOpenTokens(db: Knex | Knex.Transaction, userId: number) {
+  return db('user_tokens').where({ user_id: userId }).whereNull('used_at').update({ used_at: db.raw('NOW(3)') })
 }
 
 const TOKEN_HOURS = { invite: 72, reset: 1 } as const
@@ -113,18 +124,31 @@ export async function issueUserToken(userId: number, purpose: TokenPurpose, trx?
   return token
 }
 
-/** Uses a token once, inside one transaction, and sets the password. */
-export async function redeemUserToken(token: string, password: string): Promise<void> {
+/** An open (unused, unexpired) token: one sha256 and one indexed read, nothing hashed slowly. */
+async function findOpenToken(db: Knex | Knex.Transaction, token: string, opts: { lock?: boolean } = {}): Promise<{ id: number, user_id: number } | undefined> {
+  const query = db('user_tokens')
+    .where({ token_hash: hashToken(token) })
+    .whereNull('used_at')
+    .where('expires_at', '>', db.raw('NOW(3)'))
+    .first('id', 'user_id')
+  if (opts.lock) query.forUpdate()
+  return query
+}
+
+/**
+ * Uses a token once and sets the password. The token is looked up before the
+ * password is hashed, so a link that does not work costs no hashing; using it cancels
+ * every other open link of the account. False when the token does not work.
+ */
+export async function redeemUserToken(token: string, password: string): Promise<boolean> {
+  if (!await findOpenToken(useDb(), token)) return false
   const passwordHash = await hashPassword(password)
-  await useDb().transaction(async (trx) => {
-    const row = await trx('user_tokens')
-      .where({ token_hash: hashToken(token) })
-      .whereNull('used_at')
-      .where('expires_at', '>', trx.raw('NOW(3)'))
-      .forUpdate()
-      .first('id', 'user_id')
-    if (!row) throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'This link is not valid any more. Ask for a new one.' })
+  return useDb().transaction(async (trx) => {
+    const row = await findOpenToken(trx, token, { lock: true })
+    if (!row) return false
     await trx('user_tokens').where({ id: row.id }).update({ used_at: trx.raw('NOW(3)') })
+    await cancelOpenTokens(trx, row.user_id)
     await trx('users').where({ id: row.user_id }).update({ password_hash: passwordHash, session_version: trx.raw('session_version + 1') })
+    return true
   })
 }

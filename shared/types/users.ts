@@ -26,7 +26,7 @@ export const PasswordSchema = z.string().min(PASSWORD_MIN, `Use at least ${PASSW
 export const DisplayNameSchema = z.string().trim().min(1, 'Enter a name').max(120, 'Use at most 120 characters')
 
 export const LoginBody = z.object({ email: z.string().trim().toLowerCase().max(254), password: z.string().max(200) })
-export const RegisterBody = z.object({ email: EmailSchema, displayName: DisplayNameSchema, password: PasswordSchema })
+export const RegisterBody = z.object({ email: EmailSchema, displayName: DisplayNameSchema })
 export const PasswordChangeBody = z.object({ currentPassword: z.string().max(200), newPassword: PasswordSchema })
 export const ResetRequestBody = z.object({ email: z.string().trim().toLowerCase().max(254) })
 export const ResetConfirmBody = z.object({ token: z.string().min(20).max(200), password: PasswordSchema })

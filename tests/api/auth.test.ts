@@ -7,6 +7,10 @@ const DEMO = { reader: 'reader@example.com', writer: 'writer@example.com', edito
 
 afterAll(closeTestDb)
 
+function expectStatus(res: { status: number, body: unknown }, status: number) {
+  if (res.status !== status) throw new Error(`expected ${status}, got ${res.status}: ${JSON.stringify(res.body)}`)
+}
+
 async function newUser(role: 'reader' | 'writer' | 'editor' | 'admin', password = 'a-long-test-password') {
   const admin = await signedIn(DEMO.admin)
   const email = uniqueEmail(role)
@@ -131,22 +135,30 @@ describe('CSRF', () => {
 })
 
 describe('registration and accounts', () => {
-  it('registers a reader, signs them in, and refuses the same e-mail again in any case', async () => {
+  it('registers a reader through a mailed link; the same e-mail again, in any case, gets the same answer and changes nothing', async () => {
     const email = uniqueEmail('newreader')
     const client = new Client()
-    const res = await client.post('/api/auth/register', { email, displayName: 'New Reader', password: 'reader-password-1' })
-    expect(res.status).toBe(200)
-    expect(res.body.user.role).toBe('reader')
-    expect((await client.get('/api/auth/me')).body.user.email).toBe(email)
-    const again = await new Client().post('/api/auth/register', { email: email.toUpperCase(), displayName: 'Again', password: 'reader-password-2' })
-    expect(again.status).toBe(409)
+    const res = await client.post('/api/auth/register', { email, displayName: 'New Reader' })
+    expect(res.status).toBe(202)
+    expect(res.body).toEqual({ mailed: true })
+    expect(client.cookie).toBe('')
+    const mail = await waitForMail(email, /Finish creating/)
+    const token = /token=([\w-]+)/.exec(mail.text)![1]!
+    expectStatus(await new Client().post('/api/auth/password-reset/confirm', { token, password: 'reader-password-1' }), 200)
+    const reader = await signedIn(email, 'reader-password-1')
+    expect((await reader.get('/api/auth/me')).body.user).toMatchObject({ email, role: 'reader', displayName: 'New Reader' })
+    const again = await new Client().post('/api/auth/register', { email: email.toUpperCase(), displayName: 'Again' })
+    expect(again.status).toBe(202)
+    expect(again.body).toEqual({ mailed: true })
+    await waitForMail(email, /already have a Pullsheet account/)
+    expect((await reader.get('/api/auth/me')).body.user.displayName).toBe('New Reader')
   })
 
   it('says which field is wrong', async () => {
-    const res = await new Client().post('/api/auth/register', { email: 'not-an-email', displayName: '', password: 'short' })
+    const res = await new Client().post('/api/auth/register', { email: 'not-an-email', displayName: '' })
     expect(res.status).toBe(400)
     const paths = res.body.data.issues.map((i: { path: string }) => i.path).sort()
-    expect(paths).toEqual(['displayName', 'email', 'password'])
+    expect(paths).toEqual(['displayName', 'email'])
   })
 
   it('resets a password by an e-mailed token that works once', async () => {

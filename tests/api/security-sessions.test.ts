@@ -102,10 +102,15 @@ describe('headers', () => {
   it('API answers are nosniff too, and the session cookie is HttpOnly and SameSite on every way in', async () => {
     const api = await new Client().get('/api/magazine/home')
     expect(api.headers.get('x-content-type-options')).toBe('nosniff')
+    // Registration signs nobody in (the account is finished from a mailed link): the
+    // ways in are signing in and a password change, which issues a fresh cookie.
     const email = uniqueEmail('cookie')
-    const reg = await new Client().post('/api/auth/register', { email, displayName: 'Cookie reader', password: PASSWORD })
+    const admin = await signedIn(DEMO.admin)
+    expect((await admin.post('/api/users', { email, displayName: 'Cookie reader', role: 'reader', password: PASSWORD })).status).toBe(201)
+    const reader = await signedIn(email, PASSWORD)
+    const change = await reader.request('PATCH', '/api/auth/password', { json: { currentPassword: PASSWORD, newPassword: `${PASSWORD}-2` } })
     const login = await new Client().post('/api/auth/login', { email: DEMO.reader, password: 'pullsheet-demo' })
-    for (const res of [reg, login]) {
+    for (const res of [change, login]) {
       const cookie = res.headers.getSetCookie().find(c => c.startsWith('pullsheet-session='))
       expect(cookie, JSON.stringify(res.body)).toBeDefined()
       expect(cookie).toMatch(/HttpOnly/i)

@@ -1,10 +1,15 @@
 import { PasswordChangeBody } from '#shared/types/users'
 import { rolesAtLeast } from '#shared/types/roles'
 
+// A wrong current password counts as a failed sign-in of the account (and its limit
+// applies here too), so a stolen session cannot be used to guess the password.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('reader'))
   const body = await readValidatedBody(event, zodParser(PasswordChangeBody))
+  const ip = clientIp(event)
+  await assertLoginAllowed(event, user.email, ip)
   if (!(await verifyUserPassword(user.id, body.currentPassword))) {
+    await recordLoginFailure(user.email, ip)
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The current password is not right.', data: { issues: [{ path: 'currentPassword', message: 'Not right' }] } })
   }
   const sv = await setPassword(user.id, body.newPassword)

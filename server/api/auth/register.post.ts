@@ -1,10 +1,16 @@
 import { RegisterBody } from '#shared/types/users'
 
-/** Readers sign themselves up; other roles are given by an admin. */
+/**
+ * Readers sign themselves up; other roles are given by an admin. The answer is the
+ * same whether or not the address has an account (202, "a mail is on its way"): a new
+ * address gets a link to choose its password, a known one a mail telling its owner.
+ */
 export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, zodParser(RegisterBody))
-  const user = await createUser({ ...body, role: 'reader' })
-  const sv = (await findUserByEmail(user.email))!.session_version
-  await replaceUserSession(event, { user: { id: user.id, sv }, loggedInAt: new Date().toISOString() })
-  return { user: { id: user.id, email: user.email, displayName: user.displayName, role: user.role } }
+  const ip = clientIp(event)
+  await assertAttemptAllowed(event, 'register', body.email, ip)
+  await recordAttempt('register', body.email, ip)
+  afterAnswer(event, 'registration', () => registerOrTellOwner(body))
+  setResponseStatus(event, 202)
+  return { mailed: true }
 })

@@ -1,7 +1,14 @@
 import { ResetConfirmBody } from '#shared/types/users'
 
+// Reset and invitation links. A link that does not work costs a lookup (no password
+// hashing) and counts against the IP; the body itself is small (16 KB at most).
 export default defineEventHandler(async (event) => {
   const { token, password } = await readValidatedBody(event, zodParser(ResetConfirmBody))
-  await redeemUserToken(token, password)
+  const ip = clientIp(event)
+  await assertAttemptAllowed(event, 'reset-confirm', null, ip)
+  if (!await redeemUserToken(token, password)) {
+    await recordAttempt('reset-confirm', null, ip)
+    throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'This link is not valid any more. Ask for a new one.' })
+  }
   return { ok: true }
 })
