@@ -1,4 +1,5 @@
 import { monitorEventLoopDelay, type ELDHistogram } from 'node:perf_hooks'
+import type { ListingCheck } from './storage-privacy'
 
 // How long the event loop was held up since the last reset, and how much memory
 // the process holds: the figures the photo benchmark reads (bench/photos.bench.ts).
@@ -24,6 +25,8 @@ export interface RuntimeStats {
   memory: { rssMb: number, heapUsedMb: number, externalMb: number, arrayBuffersMb: number }
   photoJobs: { active: number }
   pullChecks: { threads: number, running: number, queued: number }
+  /** What the start-up check found: can the bucket be listed without credentials? */
+  storageListing: ListingCheck
 }
 
 export function runtimeStats(): RuntimeStats {
@@ -39,5 +42,6 @@ export function runtimeStats(): RuntimeStats {
     memory: { rssMb: mb(memory.rss), heapUsedMb: mb(memory.heapUsed), externalMb: mb(memory.external), arrayBuffersMb: mb(memory.arrayBuffers) },
     photoJobs: { active: photoJobsActive() },
     pullChecks: pullCheckStats(),
+    storageListing: bucketListingCheck(),
   }
 }
