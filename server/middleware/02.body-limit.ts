@@ -9,6 +9,9 @@ const RAW_BODY = Symbol.for('h3RawBody')
 
 export default defineEventHandler((event) => {
   const req = event.node.req as typeof event.node.req & Record<symbol | string, unknown>
+  // Without either header there is no body (h3's readers answer undefined themselves):
+  // the page cache's hot path pays nothing more.
+  if (req.headers['content-length'] === undefined && req.headers['transfer-encoding'] === undefined) return
   // Requests Nitro makes to itself ($fetch inside a render) carry their body in memory already.
   if ('__unenv__' in req || 'body' in req || 'rawBody' in req || RAW_BODY in req) return
   // Whatever the route does, a body it leaves unread is dropped, bounded, after the answer.

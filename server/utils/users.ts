@@ -130,9 +130,8 @@ async function findOpenToken(db: Knex | Knex.Transaction, token: string, opts: {
     .where({ token_hash: hashToken(token) })
     .whereNull('used_at')
     .where('expires_at', '>', db.raw('NOW(3)'))
-    .first('id', 'user_id')
   if (opts.lock) query.forUpdate()
-  return query
+  return await query.first('id', 'user_id') as { id: number, user_id: number } | undefined
 }
 
 /**
