@@ -6,8 +6,11 @@ export interface CaughtMail { id: string, to: string[], subject: string, text: s
 export function caughtMail(): CaughtMail[] {
   const dir = process.env.MAIL_CATCHER_DIR!
   if (!existsSync(dir)) return []
-  return readdirSync(dir).filter(f => f.endsWith('.json')).sort()
-    .map(f => JSON.parse(readFileSync(join(dir, f), 'utf8')) as CaughtMail)
+  // A message being written by the catcher at this moment is read on the next look.
+  return readdirSync(dir).filter(f => f.endsWith('.json')).sort().flatMap((f) => {
+    try { return [JSON.parse(readFileSync(join(dir, f), 'utf8')) as CaughtMail] }
+    catch { return [] }
+  })
 }
 
 /** Waits until a message to `to` matching `subject` arrives in the catcher. */

@@ -80,7 +80,17 @@ export async function userId(client: Client): Promise<number> {
 export async function uploadPhoto(client: Client, benchTestId: number, bytes: Uint8Array, filename = 'photo.jpg', type = 'image/jpeg') {
   const form = new FormData()
   form.append('file', new Blob([new Uint8Array(bytes)], { type }), filename)
-  return client.request<{ photo: Photo, duplicate: boolean } & { message?: string }>('POST', `/api/bench-tests/${benchTestId}/photos`, { body: form })
+  const send = () => client.request<{ photo: Photo, duplicate: boolean } & { message?: string }>('POST', `/api/bench-tests/${benchTestId}/photos`, { body: form })
+  try {
+    return await send()
+  }
+  catch (error) {
+    // A keep-alive connection the server closed while this process was busy (making a
+    // large JPEG blocks it for seconds) fails on its first write, before the server has
+    // the request: send it once more on a fresh connection.
+    if ((error as { cause?: { code?: string } }).cause?.code !== 'EPIPE') throw error
+    return send()
+  }
 }
 
 export async function waitForPhoto(client: Client, benchTestId: number, photoId: number, until: (p: Photo) => boolean = p => p.status === 'ready' || p.status === 'failed', timeoutMs = 60_000): Promise<Photo> {
