@@ -90,7 +90,7 @@ export default defineNuxtConfig({
       // from /api/auth/me, sign-out is POST /api/auth/logout) and were not honest: a GET
       // gave an anonymous visitor a session cookie, a DELETE cleared the cookie but left
       // the session valid. Left out, the address answers 404 like any unknown route.
-      config.handlers = (config.handlers ?? []).filter(handler => handler.route !== '/api/_auth/session')
+      config.handlers = (config.handlers ?? []).filter(handler => handler?.route !== '/api/_auth/session')
       // @nuxt/content prerenders each collection's SQL dump into the public files, which
       // are served before any server middleware: the desk's collections must not be
       // there. Their dump is then served by the module's route, behind
@@ -98,7 +98,7 @@ export default defineNuxtConfig({
       for (const collection of STAFF_COLLECTIONS) {
         const dump = `/__nuxt_content/${collection}/sql_dump.txt`
         config.routeRules = { ...config.routeRules, [dump]: { ...config.routeRules?.[dump], prerender: false } }
-        if (config.prerender?.routes) config.prerender.routes = config.prerender.routes.filter(route => !route.startsWith(`/__nuxt_content/${collection}/`))
+        if (config.prerender?.routes) config.prerender.routes = config.prerender.routes.filter(route => !route?.startsWith(`/__nuxt_content/${collection}/`))
       }
     },
   },

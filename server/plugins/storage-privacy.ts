@@ -1,9 +1,10 @@
+import type { ListingCheck } from '../utils/storage-privacy'
 // At start, the server checks that the bucket cannot be listed without credentials and
 // warns loudly when it can. With the demo's local s3rver (PULLSHEET_DEMO=1) it can, and
 // the warning says that this stand-in is for development only.
 export default defineNitroPlugin(() => {
   if (import.meta.dev || import.meta.prerender || process.env.PULLSHEET_STORAGE_CHECK === '0') return
-  void checkAnonymousListing().then((result) => {
+  void checkAnonymousListing().then((result: ListingCheck) => {
     if (result !== 'public') return
     const bucket = appConfig().s3.bucket
     if (appConfig().demo) {
