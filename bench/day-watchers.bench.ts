@@ -7,6 +7,7 @@
 // answer to each watcher's change event, and the server's memory and event-loop delay
 // (GET /api/admin/runtime) before the watchers, with them idle, and after the pulls.
 // Synthetic pulls (invented data).
+import { loadavg } from 'node:os'
 import { syntheticPull } from '../shared/dyno/index'
 import { localEnv } from '../scripts/lib/env'
 import { startServices } from '../scripts/lib/services'
@@ -19,7 +20,7 @@ const PULLS = Number(process.env.PULLS ?? 20)
 const INTERVAL_MS = Number(process.env.INTERVAL_MS ?? 1000)
 
 const testEnv = localEnv('test')
-await startServices(testEnv)
+const services = await startServices(testEnv)
 const app = await startApp(testEnv, { PULLSHEET_WORKERS: '0' })
 const base = testEnv.app.baseUrl
 const streams: AbortController[] = []
@@ -101,10 +102,12 @@ try {
   const q = (p: number) => s[Math.min(s.length - 1, Math.ceil(p * s.length) - 1)] ?? Number.NaN
   console.log(`| ${WATCHERS} watchers, ${PULLS} pulls one per ${INTERVAL_MS} ms | every watcher sees every pull | ${latencies.length} of ${WATCHERS * PULLS} seen (${missed} missed); upload answer to event p50 ${q(0.5).toFixed(0)} ms, p95 ${q(0.95).toFixed(0)} ms, max ${q(1).toFixed(0)} ms |`)
   console.log(`| server memory | | RSS ${before.memory.rssMb} MB before the watchers, ${idle.memory.rssMb} MB with ${WATCHERS} idle watchers, ${after.memory.rssMb} MB after the pulls (heap ${before.memory.heapUsedMb} / ${idle.memory.heapUsedMb} / ${after.memory.heapUsedMb} MB) |`)
+  console.log(`| machine | | load average ${loadavg().map(l => l.toFixed(1)).join(' / ')} (1 / 5 / 15 min) at the end |`)
   console.log(`| event loop | | delay max ${idle.eventLoop.maxDelayMs} ms, p99 ${idle.eventLoop.p99DelayMs} ms with idle watchers; max ${after.eventLoop.maxDelayMs} ms, p99 ${after.eventLoop.p99DelayMs} ms, mean ${after.eventLoop.meanDelayMs} ms while the pulls arrived |`)
 }
 finally {
   for (const c of streams) c.abort()
   await killGroup(app)
+  await services.stop()
 }
 process.exit(0)
