@@ -51,6 +51,15 @@ function healthLoad(base: string) {
   }
 }
 
+// Made before any request: building them blocks this process for seconds, longer than
+// the server keeps an idle keep-alive connection open.
+const bodies = Array.from({ length: REQUESTS }, (_, r) => JSON.stringify({
+  files: Array.from({ length: FILES_PER_REQUEST }, (_, f) => {
+    const seed = r * FILES_PER_REQUEST + f + 1
+    const pull = syntheticPull({ peakTorqueLbFt: 430, peakTorqueRpm: 4400, widthLowRpm: 2600, widthHighRpm: 1900, fromRpm: 2000, toRpm: 6500, stepRpm: STEP_RPM, seed })
+    return { name: `bench-pull-${seed}.csv`, text: pull.csv }
+  }),
+}))
 const benchEnv = localEnv('test')
 rmSync(benchEnv.dataDir, { recursive: true, force: true })
 const settings = serverEnv(benchEnv)
@@ -68,13 +77,6 @@ try {
     await writer.post('/api/auth/login', { email: 'writer@example.com', password: 'pullsheet-demo' })
     const bench = (await writer.post('/api/bench-tests', { title: 'Pull check benchmark (fictional)', engineFamily: 'pushrod-v8', partType: 'camshaft' })).body.benchTest.id as number
 
-    const bodies = Array.from({ length: REQUESTS }, (_, r) => JSON.stringify({
-      files: Array.from({ length: FILES_PER_REQUEST }, (_, f) => {
-        const seed = r * FILES_PER_REQUEST + f + 1
-        const pull = syntheticPull({ peakTorqueLbFt: 430, peakTorqueRpm: 4400, widthLowRpm: 2600, widthHighRpm: 1900, fromRpm: 2000, toRpm: 6500, stepRpm: STEP_RPM, seed })
-        return { name: `bench-pull-${seed}.csv`, text: pull.csv }
-      }),
-    }))
     const totalMb = bodies.reduce((n, b) => n + Buffer.byteLength(b), 0) / 1024 / 1024
     const loadBefore = loadavg()[0]!
 
