@@ -1,4 +1,5 @@
-// RSS and the sitemap: published stories only, absolute URLs from BASE_URL.
+// RSS and the sitemap: published stories only (their published edition's words),
+// absolute URLs from BASE_URL.
 import { escapeHtml } from '#shared/utils/escape-html'
 
 // XML 1.0 has no way to write most control characters: drop them, then escape.
@@ -22,8 +23,9 @@ const XHTML = 'http://www.w3.org/1999/xhtml'
 export const FEED_CSP = `default-src 'none'; style-src 'self'; img-src 'self'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'`
 
 export async function rssFeedXml(magazineName: string): Promise<string> {
-  const rows = await publicStories(useDb()).orderBy('published_at', 'desc').orderBy('id', 'desc').limit(FEED_LIMIT)
-    .select('slug', 'headline', 'deck', 'published_at', 'updated_at') as FeedRow[]
+  const db = useDb()
+  const rows = await publicStories(db).orderBy('stories.published_at', 'desc').orderBy('stories.id', 'desc').limit(FEED_LIMIT)
+    .select('stories.slug', ...publishedTextColumns(db), 'stories.published_at', 'stories.updated_at') as FeedRow[]
   const base = appConfig().baseUrl
   const items = rows.map(r => [
     '    <item>',
@@ -55,7 +57,7 @@ export async function rssFeedXml(magazineName: string): Promise<string> {
 }
 
 export async function sitemapXml(): Promise<string> {
-  const rows = await publicStories(useDb()).orderBy('published_at', 'desc').select('slug', 'updated_at') as Pick<FeedRow, 'slug' | 'updated_at'>[]
+  const rows = await publicStories(useDb()).orderBy('stories.published_at', 'desc').select('stories.slug', 'stories.updated_at') as Pick<FeedRow, 'slug' | 'updated_at'>[]
   const base = appConfig().baseUrl
   const pages = ['/', '/how-we-test', '/cautions', '/about'].map(p => `  <url><loc>${escapeXml(base + p)}</loc></url>`)
   const stories = rows.map(r => `  <url><loc>${escapeXml(publicStoryUrl(r.slug))}</loc><lastmod>${new Date(r.updated_at).toISOString()}</lastmod></url>`)

@@ -1,12 +1,14 @@
-// The readers' search index (story_search_terms) and the query over it. The index
-// follows the published stories by version: before a search, any published story
-// whose indexed version is not its current one is indexed again, whoever wrote it
-// (the editor, the publish job, the demo seed, a test). A story that is no longer
+// The readers' search index (story_search_terms) and the query over it, over each
+// story's published edition (its headline, deck and body). The index follows the
+// published stories by version (an edition going live bumps it): before a search,
+// any published story whose indexed version is not its current one is indexed
+// again, whoever wrote it (the editor, the publish job, the demo seed, a test). A story that is no longer
 // published keeps its rows; the query only ever joins published stories.
 import type { Knex } from 'knex'
 import { ENGINE_FAMILIES, PART_TYPES, labelOf } from '#shared/types/catalog'
 import { queryTokens, storySearchTerms } from './magazine-search-terms'
 import { proseLines } from '#shared/utils/story-markup'
+import { publicStories, publishedTextColumns } from './published-stories'
 
 interface IndexedStory {
   id: number
@@ -26,8 +28,9 @@ async function indexStory(db: Knex, storyId: number): Promise<void> {
   await db.transaction(async (trx) => {
     // The doc row is the per-story lock: two servers catching up the same story take turns.
     await trx.raw('INSERT INTO story_search_docs (story_id, story_version) VALUES (?, 0) ON DUPLICATE KEY UPDATE story_id = story_id', [storyId])
-    const row = await trx<IndexedStory>('stories').where({ id: storyId })
-      .first('id', 'version', 'headline', 'deck', 'body', 'engine_family', 'part_type')
+    // The published edition's words: an edit not yet approved must not be findable.
+    const row = await publicStories(trx).where('stories.id', storyId)
+      .first('stories.id', 'stories.version', ...publishedTextColumns(trx), trx.raw('COALESCE(edition.body, stories.body) AS body'), 'stories.engine_family', 'stories.part_type') as IndexedStory | undefined
     if (!row) return
     const tags = (await trx('story_tags').where({ story_id: storyId }).pluck('tag')) as string[]
     const terms = storySearchTerms({

@@ -143,9 +143,17 @@ export async function readerView(story: ReaderStory, db: Knex = useDb()): Promis
   return view
 }
 
-async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineStoryResponse> {
+/**
+ * The page's view of one given edition: the desk's exports of an approved or
+ * scheduled story draw what was approved, not the workspace as it is now.
+ */
+export async function editionView(story: ReaderStory, edition: Edition, db: Knex = useDb()): Promise<MagazineStoryResponse> {
+  return asJson(await buildReaderView(story, db, { data: edition.data, hash: edition.contentHash, text: edition, edition }))
+}
+
+async function buildReaderView(story: ReaderStory, db: Knex, given?: ReaderSource): Promise<MagazineStoryResponse> {
   const { row } = story
-  const source = await readerSource(story, db)
+  const source = given ?? await readerSource(story, db)
   const { data, text, edition } = source
   // Hero first, then the body's photos in the order the text places them: the gallery's order.
   const [bylines, tags, photos, editions] = await Promise.all([
@@ -155,6 +163,8 @@ async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineSt
     edition ? listEditions(db, row.id) : Promise.resolve([]),
   ])
   const figures = figuresOf(data, source.hash, { photos: [...photos.values()] })
+  // What the edition froze; an edition from before these were kept leaves the row's.
+  const heroId = edition && edition.heroPhotoId !== undefined ? edition.heroPhotoId : row.hero_photo_id
   return {
     story: {
       id: row.id,
@@ -163,12 +173,12 @@ async function buildReaderView(story: ReaderStory, db: Knex): Promise<MagazineSt
       deck: text.deck,
       bylines: bylines.get(row.id) ?? [],
       body: text.body,
-      heroPhoto: (row.hero_photo_id && data.photoIds.includes(row.hero_photo_id) ? photos.get(row.hero_photo_id) : undefined) ?? null,
+      heroPhoto: (heroId && data.photoIds.includes(heroId) ? photos.get(heroId) : undefined) ?? null,
       tags: tags.get(row.id) ?? [],
       engineFamily: row.engine_family,
       partType: row.part_type,
-      searchTitle: row.search_title,
-      searchDescription: row.search_description,
+      searchTitle: edition?.searchTitle ?? row.search_title,
+      searchDescription: edition?.searchDescription ?? row.search_description,
       state: row.state,
       publishedAt: row.published_at ? new Date(row.published_at).toISOString() : null,
       updatedAt: new Date(row.updated_at).toISOString(),

@@ -9,6 +9,7 @@ import { TagSchema, type StoryPhoto } from '#shared/types/stories'
 import type { MagazineHome, MagazinePage, MagazineStoryCard } from '#shared/types/magazine'
 import type { PhotoRecord } from './photo-access'
 import { catchUpSearchIndex, searchHits } from './magazine-search'
+import { publicStories, publishedTextColumns } from './published-stories'
 
 export const MAGAZINE_PAGE_SIZE = 12
 
@@ -33,11 +34,12 @@ interface StoryCardRow {
   published_at: Date | string
 }
 
-export function publicStories(db: Knex | Knex.Transaction) {
-  return db('stories').where('stories.state', 'published')
-}
-
-const CARD_COLUMNS = ['stories.id', 'stories.slug', 'stories.headline', 'stories.deck', 'stories.engine_family', 'stories.part_type', 'stories.hero_photo_id', 'stories.published_at']
+const cardColumns = (db: Knex) => [
+  'stories.id', 'stories.slug', ...publishedTextColumns(db), 'stories.engine_family', 'stories.part_type',
+  // Editions frozen before the hero was kept have no search title either: the row's hero then.
+  db.raw('CASE WHEN edition.search_title IS NULL THEN stories.hero_photo_id ELSE edition.hero_photo_id END AS hero_photo_id'),
+  'stories.published_at',
+]
 
 /** A photo as readers see it: web sizes only, and only once it is sized. */
 export function toReaderPhoto(row: PhotoRecord): StoryPhoto {
@@ -105,7 +107,7 @@ async function toCards(db: Knex, rows: StoryCardRow[]): Promise<MagazineStoryCar
 async function pageOf(db: Knex, base: Knex.QueryBuilder, page: number, order: (q: Knex.QueryBuilder) => Knex.QueryBuilder = newestFirst): Promise<MagazinePage> {
   const counted = await base.clone().clearSelect().count({ n: '*' }).first() as { n: number | string } | undefined
   const total = Number(counted?.n ?? 0)
-  const rows = await order(base.clone().select(CARD_COLUMNS))
+  const rows = await order(base.clone().select(cardColumns(db)))
     .limit(MAGAZINE_PAGE_SIZE).offset((page - 1) * MAGAZINE_PAGE_SIZE) as StoryCardRow[]
   return { stories: await toCards(db, rows), page, pageSize: MAGAZINE_PAGE_SIZE, total, pages: Math.max(1, Math.ceil(total / MAGAZINE_PAGE_SIZE)) }
 }
@@ -113,12 +115,12 @@ async function pageOf(db: Knex, base: Knex.QueryBuilder, page: number, order: (q
 const newestFirst = (q: Knex.QueryBuilder) => q.orderBy('stories.published_at', 'desc').orderBy('stories.id', 'desc')
 
 export async function magazineHome(db: Knex = useDb()): Promise<MagazineHome> {
-  const rows = await newestFirst(publicStories(db).select(CARD_COLUMNS)).limit(MAGAZINE_PAGE_SIZE + 1) as StoryCardRow[]
+  const rows = await newestFirst(publicStories(db).select(cardColumns(db))).limit(MAGAZINE_PAGE_SIZE + 1) as StoryCardRow[]
   const cards = await toCards(db, rows)
   const featured = cards.find(c => c.hero) ?? cards[0] ?? null
   const [families, parts, tags] = await Promise.all([
-    publicStories(db).groupBy('engine_family').select('engine_family as id').count({ n: '*' }) as unknown as Promise<{ id: EngineFamily, n: number | string }[]>,
-    publicStories(db).groupBy('part_type').select('part_type as id').count({ n: '*' }) as unknown as Promise<{ id: PartType, n: number | string }[]>,
+    publicStories(db).groupBy('stories.engine_family').select('stories.engine_family as id').count({ n: '*' }) as unknown as Promise<{ id: EngineFamily, n: number | string }[]>,
+    publicStories(db).groupBy('stories.part_type').select('stories.part_type as id').count({ n: '*' }) as unknown as Promise<{ id: PartType, n: number | string }[]>,
     publicStories(db).join('story_tags', 'story_tags.story_id', 'stories.id').groupBy('story_tags.tag')
       .select('story_tags.tag as tag').count({ n: '*' }).orderBy('n', 'desc').orderBy('tag').limit(30) as unknown as Promise<{ tag: string, n: number | string }[]>,
   ])

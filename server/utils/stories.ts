@@ -27,6 +27,8 @@ export interface StoryRow {
   published_at: Date | string | null
   version: number
   number_check_seen_version: number | null
+  /** The edition readers see (set when one goes live). */
+  published_edition_id: number | null
   created_by: number
   created_at: Date | string
   updated_at: Date | string

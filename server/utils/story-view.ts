@@ -108,6 +108,9 @@ interface EditionRow {
   approved_at: Date | string
   published_at: Date | string | null
   correction_note: string
+  search_title: string | null
+  search_description: string | null
+  hero_photo_id: number | null
 }
 
 export interface Edition extends StoryEditionSummary {
@@ -115,6 +118,10 @@ export interface Edition extends StoryEditionSummary {
   headline: string
   deck: string
   body: string
+  /** Null on editions frozen before these were kept: the story row's then stands. */
+  searchTitle: string | null
+  searchDescription: string | null
+  heroPhotoId: number | null | undefined
 }
 
 function toSummary(row: EditionRow): StoryEditionSummary {
@@ -140,7 +147,17 @@ function toEdition(row: EditionRow): Edition {
     data = JSON.parse(row.data) as StoryData
     editionData.set(String(row.id), data)
   }
-  return { ...toSummary(row), data, headline: row.headline, deck: row.deck, body: row.body }
+  return {
+    ...toSummary(row),
+    data,
+    headline: row.headline,
+    deck: row.deck,
+    body: row.body,
+    searchTitle: row.search_title,
+    searchDescription: row.search_description,
+    // Older editions kept no hero: undefined says "the row's", null says "none".
+    heroPhotoId: row.search_title === null ? undefined : row.hero_photo_id,
+  }
 }
 
 const editionQuery = (db: Db) => db<EditionRow>('story_editions').leftJoin('users', 'users.id', 'story_editions.approved_by')
@@ -180,8 +197,18 @@ export async function createEdition(trx: Knex.Transaction, row: StoryRow, by: nu
     approved_by: by,
     correction_note: opts.correctionNote ?? '',
     published_at: opts.publish ? trx.raw('NOW(3)') : null,
+    search_title: row.search_title,
+    search_description: row.search_description,
+    hero_photo_id: row.hero_photo_id,
   })
+  if (opts.publish) await markPublished(trx, row.id, Number(id))
   return Number(id)
+}
+
+// The lists, search and feeds read the published edition through this key. Setting
+// updated_at to itself: naming the edition is not an edit of the story.
+async function markPublished(trx: Knex.Transaction, storyId: number, editionId: number): Promise<void> {
+  await trx('stories').where('id', storyId).update({ published_edition_id: editionId, updated_at: trx.raw('updated_at') })
 }
 
 /**
@@ -195,6 +222,7 @@ export async function publishLatestEdition(trx: Knex.Transaction, row: StoryRow,
     return
   }
   if (!latest.published_at) await trx('story_editions').where('id', latest.id).update({ published_at: trx.raw('NOW(3)') })
+  await markPublished(trx, row.id, latest.id)
 }
 
 // ---------- changes since approval ----------

@@ -5,12 +5,14 @@
 // correction publishes a new edition with a dated note readers see.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { INLINE_FIGURES, inlineFigureValue } from '#shared/types/story-figures'
-import { gainCurves, graphSetups, resultsTableRows } from '#shared/utils/figure-data'
+import { gainCurves, graphSetups, overlayCurves, resultsTableRows } from '#shared/utils/figure-data'
 import { figureSourceOf } from '#shared/utils/story-view'
 import { Client, signedIn } from '../support/http'
-import { closeTestDb } from '../support/db'
+import { closeTestDb, testDb } from '../support/db'
+import { buildDemoBenchTest } from '../../server/db/demo/bench-tests'
+import { DEMO_MAGAZINE_TESTS } from '../../server/db/demo/magazine-tests'
 import { DEMO, createSetup, expectOk, importFiles, pullFile } from '../support/workspace'
-import { CAM_MODEL, createStory, storyBench, transition, type StoryBench } from '../support/stories'
+import { CAM_MODEL, createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
 
 afterAll(closeTestDb)
 
@@ -52,40 +54,124 @@ beforeAll(async () => {
   setups = [bench.baselineId, bench.camId, headersId]
 }, 120_000)
 
+/**
+ * The editor's figures and the reader's, compared for every figure kind over every
+ * ordered pair of `ids`; returns how many pair values were compared.
+ */
+function expectParity(ids: number[], editorFigures: any, reader: any, opts: { idleEverywhere: boolean }): number {
+  const ed = figureSourceOf(editorFigures)!
+  const rd = figureSourceOf(reader)!
+  let compared = 0
+  for (const a of ids) {
+    for (const f of INLINE_FIGURES.filter(x => !x.pair)) {
+      expect(inlineFigureValue(rd, { of: f.id, setup: a }), `${f.id} of ${a}`).toEqual(inlineFigureValue(ed, { of: f.id, setup: a }))
+    }
+    expect(resultsTableRows(reader.analysis, reader.comparisons, undefined, a)).toEqual(resultsTableRows(editorFigures.analysis, editorFigures.comparisons, undefined, a))
+    for (const b of ids) {
+      if (a === b) continue
+      for (const f of INLINE_FIGURES.filter(x => x.pair)) {
+        const value = inlineFigureValue(rd, { of: f.id, setup: b, vs: a })
+        // Without idle checks on every setup, the one figure the data cannot give.
+        if (opts.idleEverywhere || f.id !== 'idle-vacuum-change') expect(value.problem, `${f.id} of ${b} vs ${a}`).toBeNull()
+        expect(value).toEqual(inlineFigureValue(ed, { of: f.id, setup: b, vs: a }))
+        compared++
+      }
+      for (const units of ['hp-lbft', 'kw-nm'] as const) {
+        const readerCurve = gainCurves(reader.analysis, a, graphSetups(reader.analysis, [b]).setups, { units })
+        expect(readerCurve).toHaveLength(1)
+        expect(readerCurve).toEqual(gainCurves(editorFigures.analysis, a, graphSetups(editorFigures.analysis, [b]).setups, { units }))
+      }
+    }
+    for (const units of ['hp-lbft', 'kw-nm'] as const) {
+      expect(overlayCurves(reader.analysis, graphSetups(reader.analysis, ids).setups, { units }))
+        .toEqual(overlayCurves(editorFigures.analysis, graphSetups(editorFigures.analysis, ids).setups, { units }))
+    }
+  }
+  // The drawn curves (and so every readout) are the very same points.
+  expect(reader.analysis.setups.map((s: any) => s.curve)).toEqual(editorFigures.analysis.setups.map((s: any) => s.curve))
+  expect(reader.buildSheet).toEqual(editorFigures.buildSheet)
+  return compared
+}
+
 describe('one pipeline: the editor and the reader', () => {
   it('give identical values for every figure kind and every ordered pair of setups', async () => {
     const story = await createStory(editor, bench.benchTestId, { body: everyPairBody(setups) })
     const editorFigures = expectOk(await editor.get(`/api/stories/${story.id}/figures`))
     await approveAndPublish(story.id)
     const reader = expectOk(await new Client().get(`/api/magazine/stories/${story.slug}`)).figures
+    expect(expectParity(setups, editorFigures, reader, { idleEverywhere: false })).toBe(6 * INLINE_FIGURES.filter(x => x.pair).length)
+  })
 
-    const ed = figureSourceOf(editorFigures)!
-    const rd = figureSourceOf(reader)!
-    let compared = 0
-    for (const a of setups) {
-      for (const f of INLINE_FIGURES.filter(x => !x.pair)) {
-        expect(inlineFigureValue(rd, { of: f.id, setup: a }), `${f.id} of ${a}`).toEqual(inlineFigureValue(ed, { of: f.id, setup: a }))
-      }
-      expect(resultsTableRows(reader.analysis, reader.comparisons, undefined, a)).toEqual(resultsTableRows(editorFigures.analysis, editorFigures.comparisons, undefined, a))
-      for (const b of setups) {
-        if (a === b) continue
-        for (const f of INLINE_FIGURES.filter(x => x.pair)) {
-          const value = inlineFigureValue(rd, { of: f.id, setup: b, vs: a })
-          // The headers setup has no idle checks: the one figure the data cannot give.
-          if (f.id !== 'idle-vacuum-change') expect(value.problem, `${f.id} of ${b} vs ${a}`).toBeNull()
-          expect(value).toEqual(inlineFigureValue(ed, { of: f.id, setup: b, vs: a }))
-          compared++
-        }
-        const win = { units: 'hp-lbft' as const }
-        const readerCurve = gainCurves(reader.analysis, a, graphSetups(reader.analysis, [b]).setups, win)
-        expect(readerCurve).toHaveLength(1)
-        expect(readerCurve).toEqual(gainCurves(editorFigures.analysis, a, graphSetups(editorFigures.analysis, [b]).setups, win))
-      }
+  it('on the demo magazine\'s camshaft bench test, four cams, every ordered pair', async () => {
+    // The test profile leaves the magazine's bench tests out (PULLSHEET_DEMO_STORIES=0):
+    // this one is built here by the same demo module the seed uses, with the same seeds.
+    const camTest = DEMO_MAGAZINE_TESTS.find(t => t.benchTest.partType === 'camshaft')!
+    const db = testDb()
+    let benchTestId = (await db('bench_tests').where({ slug: camTest.slug }).first('id'))?.id as number | undefined
+    if (!benchTestId) {
+      const writer = await db('users').where({ email: DEMO.writer }).first('id')
+      benchTestId = await buildDemoBenchTest(db, Number(writer.id), camTest, 20_000)
     }
-    expect(compared).toBe(6 * INLINE_FIGURES.filter(x => x.pair).length)
-    // The drawn curves (and so every readout) are the very same points.
-    expect(reader.analysis.setups.map((s: any) => s.curve)).toEqual(editorFigures.analysis.setups.map((s: any) => s.curve))
-    expect(reader.buildSheet).toEqual(editorFigures.buildSheet)
+    const demoSetups = expectOk(await editor.get(`/api/bench-tests/${benchTestId}/setups`)).setups.map((s: any) => s.id) as number[]
+    expect(demoSetups).toHaveLength(camTest.setups.length)
+    const story = await createStory(editor, benchTestId, { body: everyPairBody(demoSetups) })
+    const editorFigures = expectOk(await editor.get(`/api/stories/${story.id}/figures`))
+    await approveAndPublish(story.id)
+    const reader = expectOk(await new Client().get(`/api/magazine/stories/${story.slug}`)).figures
+    expect(expectParity(demoSetups, editorFigures, reader, { idleEverywhere: true })).toBe(4 * 3 * INLINE_FIGURES.filter(x => x.pair).length)
+    // The reader's other standard and units: the same results table as the workspace's analysis.
+    const switched = expectOk(await new Client().get(`/api/magazine/stories/${story.slug}/figures?standard=din-70020&units=kw-nm`))
+    const workspace = expectOk(await editor.get(`/api/bench-tests/${benchTestId}/analysis?standard=din-70020&units=kw-nm&setups=${demoSetups.join(',')}`))
+    expect(switched.analysis.standard).toBe('din-70020')
+    expect(switched.analysis.table).toEqual(workspace.table)
+  }, 120_000)
+})
+
+describe('everywhere a reader meets a story, its published edition', () => {
+  const word = () => Math.random().toString(36).replace(/[^a-z]/g, '').slice(0, 8).padEnd(6, 'q')
+  const approvedWord = `approved${word()}`
+  const laterWord = `unapproved${word()}`
+  const tag = `edition-${word()}`
+  let story: { id: number, slug: string, version: number }
+
+  beforeAll(async () => {
+    story = await createStory(editor, bench.benchTestId, {
+      headline: `Cam test ${approvedWord}`,
+      deck: `The deck ${approvedWord} as approved.`,
+      tags: [tag],
+      body: storyBody(bench),
+    })
+    await approveAndPublish(story.id)
+    // An editor may edit a live story's text; readers get it only through a new approval.
+    const live = expectOk(await editor.get(`/api/stories/${story.id}`)).story
+    expectOk(await editor.patch(`/api/stories/${story.id}`, {
+      version: live.version,
+      headline: `Cam test ${laterWord}`,
+      deck: `The deck ${laterWord} not yet approved.`,
+      searchTitle: `Search title ${laterWord}`,
+      searchDescription: `Search description ${laterWord}.`,
+    }))
+  }, 120_000)
+
+  it('shows the approved headline and deck on the home page, the lists, the search and the feed, never a later edit', async () => {
+    const anonymous = new Client()
+    const pages: [string, string][] = []
+    for (const path of ['/', `/stories/${story.slug}`, `/tags/${tag}`, '/search?q=cam', '/feed.xml']) {
+      const res = await fetch(`${anonymous.base}${path}`)
+      expect(res.status, path).toBe(200)
+      pages.push([path, await res.text()])
+    }
+    for (const path of ['/api/magazine/home', '/api/magazine/latest', '/api/magazine/engine/pushrod-v8', '/api/magazine/part/exhaust', `/api/magazine/tags/${tag}`, `/api/magazine/search?q=${approvedWord}`, `/api/magazine/stories/${story.slug}`]) {
+      pages.push([path, JSON.stringify(expectOk(await anonymous.get(path)))])
+    }
+    for (const [path, text] of pages) {
+      expect(text, path).not.toContain(laterWord)
+      if (path !== '/search?q=cam') expect(text, path).toContain(`Cam test ${approvedWord}`)
+    }
+    const found = expectOk(await anonymous.get(`/api/magazine/search?q=${approvedWord}`))
+    expect(found.stories.map((s: any) => s.slug)).toEqual([story.slug])
+    expect(found.stories[0].deck).toBe(`The deck ${approvedWord} as approved.`)
+    expect(expectOk(await anonymous.get(`/api/magazine/search?q=${laterWord}`)).total).toBe(0)
   })
 })
 
