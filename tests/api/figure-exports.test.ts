@@ -10,8 +10,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { socialCardVersion } from '#shared/figures/social-card'
 import { BASE_URL, Client, signedIn } from '../support/http'
 import { csvRows } from '../support/csv'
-import { DEMO, expectOk } from '../support/workspace'
-import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
+import { DEMO, expectOk, importFiles, pullFile } from '../support/workspace'
+import { CAM_MODEL, createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
 
 const dir = mkdtempSync(join(tmpdir(), 'pullsheet-exports-'))
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
@@ -210,5 +210,29 @@ describe('embeds', () => {
   it('a figure the story does not have, or a story readers cannot see, is not found', async () => {
     expect((await new Client().request('GET', `/embed/${story.slug}/9`, { headers: { accept: 'text/html' } })).status).toBe(404)
     expect((await new Client().request('GET', `/embed/${story.draftSlug}/1`, { headers: { accept: 'text/html' } })).status).toBe(404)
+  })
+})
+
+describe('exports are drawn from the edition, not the workspace', () => {
+  it('a pull added after approval and publication moves no desk export and no card; a story still being written follows the workspace', async () => {
+    const approved = await createStory(editor, bench.benchTestId, { body: storyBody(bench, '\n::results-table\n::') })
+    expectOk(await transition(editor, approved.id, 'submit'))
+    expectOk(await editor.get(`/api/stories/${approved.id}/number-check`))
+    expectOk(await transition(editor, approved.id, 'approve'))
+    const table = async (id: number, number: number) => {
+      const res = await fetchBytes(`/api/stories/${id}/figures/${number}/print?format=csv`, editor)
+      expect(res.status).toBe(200)
+      return res.bytes.toString('utf8')
+    }
+    const card = async () => (await fetchBytes(`/api/magazine/stories/${story.slug}/card.png?v=${socialCardVersion(story)}`)).headers.get('etag')
+    const before = { published: await table(story.id, 3), approved: await table(approved.id, 2), draft: await table(story.draftId, 3), card: await card() }
+
+    // A much stronger cam pull: the cam's averaged curve, and so its peak, moves.
+    expectOk(await importFiles(editor, bench.benchTestId, [pullFile(`late-${Date.now()}.csv`, bench.camId, { ...CAM_MODEL, peakTorqueLbFt: 490, seed: 93_001 })]), 201)
+
+    expect(await table(story.draftId, 3)).not.toBe(before.draft)
+    expect(await table(story.id, 3)).toBe(before.published)
+    expect(await table(approved.id, 2)).toBe(before.approved)
+    expect(await card()).toBe(before.card)
   })
 })

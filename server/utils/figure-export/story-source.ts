@@ -1,11 +1,13 @@
 // Where figure exports, social cards and embeds read a story from: the one place
-// that knows the story view's shape. Published stories come from the reader's view
-// (what readers see, cached per process); the desk's exports of a story at any
-// state come from the story's current text and figures. When a story's published
-// figures move into frozen editions, only this file changes.
+// that knows the story view's shape. Everything is drawn from an edition whenever
+// the story has one that counts: the published edition for readers and for the
+// desk's exports of a published story, the approved edition for the desk's exports
+// of an approved or scheduled story. Only a story still being written (draft, in
+// review, sent back) is drawn from the workspace as it is now.
 import type { H3Event } from 'h3'
 import type { StoryFigures, StoryReaderView } from '#shared/types/stories'
 import type { CurrentUser } from '#shared/types/users'
+import type { ReaderStory } from '../magazine-story'
 
 export interface FigureStory {
   id: number
@@ -20,8 +22,9 @@ export interface FigureStory {
   /** Photo ids the story uses: the hero first, then the body's order. */
   photoIds: number[]
   /**
-   * Names exactly what the figures are drawn from: a new key whenever anything a
-   * reader could see changes. Cached drawings (social cards) are kept under it.
+   * Names exactly what the figures are drawn from: the edition (never changes), or
+   * for a story without one the row's version. Cached drawings (social cards) are
+   * kept under it.
    */
   editionKey: string
   /** True when the story is not published (the desk looking at its own work). */
@@ -46,7 +49,13 @@ function fromView(view: StoryReaderView, editionKey: string): FigureStory {
   }
 }
 
-const keyOf = (row: { id: number, version: number, updated_at: Date | string }) => `${row.id}-${row.version}-${new Date(row.updated_at).getTime()}`
+const rowKey = (row: { id: number, version: number, updated_at: Date | string }) => `${row.id}-${row.version}-${new Date(row.updated_at).getTime()}`
+// The time keeps keys apart across databases that reuse story ids (a reset demo, one bucket).
+const editionKey = (storyId: number, edition: { number: number, at: string }) => `${storyId}-edition-${edition.number}-${new Date(edition.at).getTime()}`
+
+function publishedKey(story: ReaderStory, view: StoryReaderView): string {
+  return view.edition?.publishedAt ? editionKey(story.row.id, { number: view.edition.number, at: view.edition.publishedAt }) : rowKey(story.row)
+}
 
 /**
  * The story at this slug as the caller may read it (published; the desk also sees
@@ -55,13 +64,23 @@ const keyOf = (row: { id: number, version: number, updated_at: Date | string }) 
 export async function readerFigureStory(event: H3Event, slug: string): Promise<FigureStory> {
   const story = await findReaderStory(slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  return fromView(await readerView(story), keyOf(story.row))
+  const view = await readerView(story)
+  return fromView(view, publishedKey(story, view))
 }
 
-/** The story's current text and figures, for its desk (bylines, editors, admins): 404 for anyone else. */
+/** The story's figures for its desk (bylines, editors, admins): 404 for anyone else. */
 export async function deskFigureStory(user: CurrentUser, storyId: number): Promise<FigureStory> {
   const db = useDb()
   const row = await requireStoryRow(db, user, storyId)
-  const view = await storyReaderView(db, row, { preview: row.state !== 'published' })
-  return fromView(view, keyOf(row))
+  const story = await findReaderStory(row.slug, user, db)
+  if (!story.preview) {
+    const view = await readerView(story, db)
+    return fromView(view, publishedKey(story, view))
+  }
+  if (row.state === 'approved' || row.state === 'scheduled') {
+    const approved = await latestEdition(db, row.id)
+    if (approved) return fromView(await editionView(story, approved, db), editionKey(row.id, { number: approved.number, at: approved.approvedAt }))
+  }
+  const view = await storyReaderView(db, row, { preview: true })
+  return fromView(view, rowKey(row))
 }
