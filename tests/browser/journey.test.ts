@@ -314,7 +314,7 @@ describe('from the operator\'s upload link to the reader\'s download', () => {
 
       // The graph in kW: each setup's readout is its mean curve at that rpm (within 1 %:
       // the curve drawn is thinned for display).
-      await graph.getByTestId('figure-units-kw-nm').check()
+      await page.getByTestId('story-data').getByTestId('units-switch').selectOption('kw-nm')
       await expect.poll(() => rows.first().getByTestId('figure-readout-power').textContent()).toMatch(/ kW$/)
       const rpm = await rpmOf()
       for (const [i, id] of setupIds.entries()) {

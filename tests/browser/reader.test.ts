@@ -1,6 +1,7 @@
 // A reader on a published story: the server's SVG graph turns live, hovering moves
-// the readout, a setup can be toggled off, units and correction standard switch
-// (and are remembered), the data downloads as CSV. axe-core finds no serious or
+// the readout, a setup can be toggled off, the page's one units and correction
+// standard control switches every graph and table, never the prose (and is
+// remembered), the data downloads as CSV. axe-core finds no serious or
 // critical problem on the home page, a story and search. Screenshots at phone and
 // desktop widths go to .data/test/screenshots.
 import { mkdirSync, readFileSync } from 'node:fs'
@@ -28,6 +29,9 @@ beforeAll(async () => {
     '::',
     '',
     `It gained :figure-value{of="peak-power-gain" setup=${bench.camId} vs=${bench.baselineId}} at the peak.`,
+    '',
+    `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`,
+    '::',
     '',
     '::results-table',
     '::',
@@ -84,20 +88,27 @@ describe('a reader on a story', () => {
     await expect.poll(() => graph.getByTestId('figure-readout-row').count()).toBe(1)
     await graph.getByTestId(`figure-toggle-${bench.camId}`).check()
 
-    // The graph's units: kW and N-m in the readout.
-    await graph.getByTestId('figure-units-kw-nm').check()
-    await expect.poll(() => graph.getByTestId('figure-readout-row').first().textContent()).toMatch(/kW/)
+    // One page-level control for units and standard: no graph has a switch of its own.
+    expect(await page.locator('[data-testid^="figure-units-"]').count()).toBe(0)
+    await expect(page.getByTestId('units-switch').count()).resolves.toBe(1)
+    await expect(page.getByTestId('standard-switch').count()).resolves.toBe(1)
 
-    // The reader's units for the data: the table and the CSV follow, and are remembered.
+    // The reader's units: the graph's readout, every graph's numbers, the table and the CSV follow, and are remembered.
     const data = page.getByTestId('story-data')
     await data.getByTestId('units-switch').selectOption('kw-nm')
+    await expect.poll(() => graph.getByTestId('figure-readout-row').first().textContent()).toMatch(/kW/)
     await expect.poll(() => data.getByTestId('story-results').getAttribute('data-units')).toBe('kw-nm')
     await expect(data.getByTestId('results-table').textContent()).resolves.toContain('kW')
 
     // The correction standard redraws the story's figures too.
     await data.getByTestId('standard-switch').selectOption('din-70020')
     await expect.poll(() => data.getByTestId('story-results').getAttribute('data-standard')).toBe('din-70020')
-    await expect.poll(() => graph.locator('figcaption').textContent()).toContain('DIN 70020')
+    const graphs = page.getByTestId('figure-graph')
+    await expect(graphs.count()).resolves.toBe(2)
+    for (let i = 0; i < 2; i++) {
+      await expect.poll(() => graphs.nth(i).locator('figcaption').textContent()).toContain('DIN 70020')
+      await expect.poll(() => graphs.nth(i).getByTestId('figure-data').textContent()).toContain('(kW)')
+    }
     // One page-level switch: the body's results table follows in standard and units, the prose never.
     const bodyTable = page.getByTestId('figure-results-table').first()
     await expect.poll(() => bodyTable.textContent()).toContain('DIN 70020')
