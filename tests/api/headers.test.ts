@@ -1,5 +1,7 @@
-import { describe, expect, it } from 'vitest'
-import { Client, DEMO_PASSWORD } from '../support/http'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { Client, DEMO_PASSWORD, signedIn } from '../support/http'
+import { DEMO, expectOk } from '../support/workspace'
+import { createStory, storyBench, storyBody, transition } from '../support/stories'
 
 describe('security headers', () => {
   it('pages carry a CSP without unsafe-inline scripts, nosniff, a referrer policy and no framing', async () => {
@@ -24,5 +26,51 @@ describe('security headers', () => {
     const res = await new Client().get('/api/users/not-a-number')
     expect(res.status).toBeGreaterThanOrEqual(400)
     expect(JSON.stringify(res.body)).not.toMatch(/\bat .+\.(m?js|ts):\d+|node_modules/)
+  })
+})
+
+describe('cache headers of the reader\'s answers', () => {
+  let slug = ''
+  beforeAll(async () => {
+    const editor = await signedIn(DEMO.editor)
+    const bench = await storyBench(editor)
+    const story = await createStory(editor, bench.benchTestId, { body: storyBody(bench) })
+    expectOk(await transition(editor, story.id, 'submit'))
+    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
+    expectOk(await transition(editor, story.id, 'approve'))
+    expectOk(await transition(editor, story.id, 'publish_now'))
+    slug = story.slug
+    // Every app server polls the stories for changes every 2 s and drops its cache on
+    // one: let that happen before the pairs of requests below.
+    await new Promise(r => setTimeout(r, 2500))
+  }, 120_000)
+
+  const paths = () => ['/', `/stories/${slug}`, '/feed.xml', `/api/magazine/stories/${slug}`, `/api/magazine/stories/${slug}/data.csv`, `/api/magazine/stories/${slug}/figures`]
+
+  it('anonymous: public with s-maxage and an ETag; a cache hit answers 304 to If-None-Match', async () => {
+    const base = new Client().base
+    for (const path of paths()) {
+      const first = await fetch(base + path, { headers: { 'accept-encoding': 'br' } })
+      expect(first.status, path).toBe(200)
+      expect(first.headers.get('cache-control'), path).toMatch(/^public, .*s-maxage=\d+.*stale-while-revalidate=\d+/)
+      const etag = first.headers.get('etag')
+      expect(etag, path).toBeTruthy()
+      await first.arrayBuffer()
+      const again = await fetch(base + path, { headers: { 'accept-encoding': 'br', 'if-none-match': etag! } })
+      expect(again.status, path).toBe(304)
+      expect(again.headers.get('x-page-cache'), path).toBe('hit')
+      expect(again.headers.get('etag'), path).toBe(etag)
+    }
+  })
+
+  it('signed in: private, no-store, never from the page cache', async () => {
+    const reader = await signedIn(DEMO.reader)
+    for (const path of paths()) {
+      const res = await fetch(reader.base + path, { headers: { cookie: reader.cookie } })
+      expect(res.status, path).toBe(200)
+      expect(res.headers.get('cache-control'), path).toBe('private, no-store')
+      expect(res.headers.get('x-page-cache'), path).toBeNull()
+      await res.arrayBuffer()
+    }
   })
 })
