@@ -1,0 +1,46 @@
+// The story page on the wire (issue 19): at most 40 KB as a reader's browser gets it
+// (Brotli, else gzip), with three figures drawn. The sizes are printed for the record.
+import { brotliDecompressSync, gunzipSync } from 'node:zlib'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { Client, signedIn } from '../support/http'
+import { DEMO, expectOk } from '../support/workspace'
+import { createStory, storyBench, storyBody, transition } from '../support/stories'
+
+let slug = ''
+
+beforeAll(async () => {
+  const editor = await signedIn(DEMO.editor)
+  const bench = await storyBench(editor)
+  const body = [storyBody(bench), '', `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`, '::', '', '::results-table', '::'].join('\n')
+  const story = await createStory(editor, bench.benchTestId, { body })
+  expectOk(await transition(editor, story.id, 'submit'))
+  expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
+  expectOk(await transition(editor, story.id, 'approve'))
+  expectOk(await transition(editor, story.id, 'publish_now'))
+  slug = story.slug
+}, 120_000)
+
+async function page(encoding: string): Promise<{ wire: number, html: string }> {
+  const res = await fetch(`${new Client().base}/stories/${slug}`, { headers: { 'accept-encoding': encoding } })
+  expect(res.status).toBe(200)
+  const bytes = Buffer.from(await res.arrayBuffer())
+  const used = res.headers.get('content-encoding')
+  const html = (used === 'br' ? brotliDecompressSync(bytes) : used === 'gzip' ? gunzipSync(bytes) : bytes).toString('utf8')
+  return { wire: bytes.byteLength, html }
+}
+
+/** Curve points the page's payload carries ({"rpm":...} objects, escaped inside the payload's JSON string). */
+const pointsIn = (text: string) => (text.match(/\\?"rpm\\?":/g) ?? []).length
+
+describe('the story page on the wire', () => {
+  it('is at most 40 KB compressed', async () => {
+    const br = await page('br')
+    const gzip = await page('gzip')
+    const identity = await page('identity')
+    const view = JSON.stringify(expectOk(await new Client().get(`/api/magazine/stories/${slug}`)))
+    console.log(`story page: ${(br.wire / 1024).toFixed(1)} KB Brotli, ${(gzip.wire / 1024).toFixed(1)} KB gzip, ${(identity.wire / 1024).toFixed(1)} KB uncompressed; curve points in the page ${pointsIn(identity.html)}, in the API's view ${pointsIn(view)}`)
+    expect(br.html).toBe(identity.html)
+    expect(br.wire).toBeLessThanOrEqual(40 * 1024)
+    expect(gzip.wire).toBeLessThanOrEqual(40 * 1024)
+  })
+})
