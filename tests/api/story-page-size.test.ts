@@ -39,7 +39,6 @@ describe('the story page on the wire', () => {
     const identity = await page('identity')
     const view = JSON.stringify(expectOk(await new Client().get(`/api/magazine/stories/${slug}`)))
     console.log(`story page: ${(br.wire / 1024).toFixed(1)} KB Brotli, ${(gzip.wire / 1024).toFixed(1)} KB gzip, ${(identity.wire / 1024).toFixed(1)} KB uncompressed; curve points in the page ${pointsIn(identity.html)}, in the API's view ${pointsIn(view)}`)
-    expect(br.html).toBe(identity.html)
     expect(br.wire).toBeLessThanOrEqual(40 * 1024)
     expect(gzip.wire).toBeLessThanOrEqual(40 * 1024)
   })
