@@ -68,9 +68,9 @@ export default defineNitroPlugin((nitroApp) => {
     const target = event.context.pageCache
     const keepable = target && res.statusCode === 200 && !event.context.currentUser && !res.getHeader('set-cookie') && !/private/.test(cacheControl) // a desk preview says private
     if (target) res.setHeader('Cache-Control', keepable ? PUBLIC_CACHE_CONTROL : PRIVATE_CACHE_CONTROL)
-    // A page, or anything answered to a session (the reader's JSON and CSV included), is
-    // nobody else's to keep unless its route said otherwise.
-    else if (!cacheControl && (contentType.startsWith('text/html') || hasSession(getRequestHeader(event, 'cookie') ?? ''))) res.setHeader('Cache-Control', PRIVATE_CACHE_CONTROL)
+    // A page, or anything answered to a session (the reader's JSON, CSV and feed included),
+    // is nobody else's to keep unless its route said more than the /api default (no-store).
+    else if ((!cacheControl || cacheControl === 'no-store') && (contentType.startsWith('text/html') || hasSession(getRequestHeader(event, 'cookie') ?? ''))) res.setHeader('Cache-Control', PRIVATE_CACHE_CONTROL)
 
     const identity = typeof raw === 'string' ? Buffer.from(raw) : raw
     // Nuxt renders its error page through an internal request and reads the text back.

@@ -49,9 +49,12 @@ beforeAll(async () => {
   })
   await publish(typed.id)
   Object.assign(numbers, { id: typed.id, slug: typed.slug })
-  // The other published story mentions the ranked word in its body only.
+  // The other published story mentions the ranked word in its body only: an edit that
+  // reaches readers (and their search) as a corrected edition (issue 13).
   const other = expectOk(await editor.get(`/api/stories/${published.id}`)).story
   expectOk(await editor.patch(`/api/stories/${published.id}`, { version: other.version, body: `${body}\nAlso ${numbers.ranked}.\n` }))
+  expectOk(await editor.get(`/api/stories/${published.id}/number-check`))
+  expectOk(await transition(editor, published.id, 'publish_correction', { note: 'A line added.' }))
 }, 120_000)
 
 describe('who reaches a story', () => {

@@ -1,5 +1,6 @@
 // The story page on the wire (issue 19): at most 40 KB as a reader's browser gets it
 // (Brotli, else gzip), with three figures drawn. The sizes are printed for the record.
+import { get } from 'node:http'
 import { brotliDecompressSync, gunzipSync } from 'node:zlib'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Client, signedIn } from '../support/http'
@@ -20,13 +21,20 @@ beforeAll(async () => {
   slug = story.slug
 }, 120_000)
 
-async function page(encoding: string): Promise<{ wire: number, html: string }> {
-  const res = await fetch(`${new Client().base}/stories/${slug}`, { headers: { 'accept-encoding': encoding } })
-  expect(res.status).toBe(200)
-  const bytes = Buffer.from(await res.arrayBuffer())
-  const used = res.headers.get('content-encoding')
-  const html = (used === 'br' ? brotliDecompressSync(bytes) : used === 'gzip' ? gunzipSync(bytes) : bytes).toString('utf8')
-  return { wire: bytes.byteLength, html }
+/** The page's bytes as they cross the wire (node:http: fetch would decompress them). */
+function page(encoding: string): Promise<{ wire: number, html: string }> {
+  return new Promise((resolve, reject) => {
+    get(`${new Client().base}/stories/${slug}`, { headers: { 'accept-encoding': encoding } }, (res) => {
+      const chunks: Buffer[] = []
+      res.on('data', (c: Buffer) => chunks.push(c))
+      res.on('end', () => {
+        const bytes = Buffer.concat(chunks)
+        const used = res.headers['content-encoding']
+        if (res.statusCode !== 200) return reject(new Error(`status ${res.statusCode}`))
+        resolve({ wire: bytes.byteLength, html: (used === 'br' ? brotliDecompressSync(bytes) : used === 'gzip' ? gunzipSync(bytes) : bytes).toString('utf8') })
+      })
+    }).on('error', reject)
+  })
 }
 
 /** Curve points the page's payload carries ({"rpm":...} objects, escaped inside the payload's JSON string). */
