@@ -14,6 +14,8 @@ import { expectOk } from '../support/workspace'
 import { createStory, storyBench, transition, type StoryBench } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
+// A switch refetches the figures: on a loaded machine that can take more than the default second.
+const NETWORK = { timeout: 10_000 }
 const word = `quindle${Math.random().toString(36).slice(2, 7)}`
 let bench: StoryBench
 let slug = ''
@@ -96,23 +98,23 @@ describe('a reader on a story', () => {
     // The reader's units: the graph's readout, every graph's numbers, the table and the CSV follow, and are remembered.
     const data = page.getByTestId('story-data')
     await data.getByTestId('units-switch').selectOption('kw-nm')
-    await expect.poll(() => graph.getByTestId('figure-readout-row').first().textContent()).toMatch(/kW/)
-    await expect.poll(() => data.getByTestId('story-results').getAttribute('data-units')).toBe('kw-nm')
+    await expect.poll(() => graph.getByTestId('figure-readout-row').first().textContent(), NETWORK).toMatch(/kW/)
+    await expect.poll(() => data.getByTestId('story-results').getAttribute('data-units'), NETWORK).toBe('kw-nm')
     await expect(data.getByTestId('results-table').textContent()).resolves.toContain('kW')
 
     // The correction standard redraws the story's figures too.
     await data.getByTestId('standard-switch').selectOption('din-70020')
-    await expect.poll(() => data.getByTestId('story-results').getAttribute('data-standard')).toBe('din-70020')
+    await expect.poll(() => data.getByTestId('story-results').getAttribute('data-standard'), NETWORK).toBe('din-70020')
     const graphs = page.getByTestId('figure-graph')
     await expect(graphs.count()).resolves.toBe(2)
     for (let i = 0; i < 2; i++) {
-      await expect.poll(() => graphs.nth(i).locator('figcaption').textContent()).toContain('DIN 70020')
-      await expect.poll(() => graphs.nth(i).getByTestId('figure-data').textContent()).toContain('(kW)')
+      await expect.poll(() => graphs.nth(i).locator('figcaption').textContent(), NETWORK).toContain('DIN 70020')
+      await expect.poll(() => graphs.nth(i).getByTestId('figure-data').textContent(), NETWORK).toContain('(kW)')
     }
     // One page-level switch: the body's results table follows in standard and units, the prose never.
     const bodyTable = page.getByTestId('figure-results-table').first()
-    await expect.poll(() => bodyTable.textContent()).toContain('DIN 70020')
-    await expect.poll(() => bodyTable.textContent()).toContain('kW')
+    await expect.poll(() => bodyTable.textContent(), NETWORK).toContain('DIN 70020')
+    await expect.poll(() => bodyTable.textContent(), NETWORK).toContain('kW')
     expect(await prose.textContent()).toBe(proseText)
     await expect(page.getByTestId('story-edition-note').textContent()).resolves.toContain('now show DIN 70020')
 
