@@ -15,6 +15,8 @@ import { createStory, storyBench, transition, type StoryBench } from '../support
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
 const WIDTHS = [390, 768, 1280]
+// Three widths and several pages each, on a machine shared by many builds.
+const PAGE_TIMEOUT = 240_000
 let bench: StoryBench
 let slug = ''
 let storyId = 0
@@ -81,9 +83,11 @@ async function expectNoClippedTable(page: Page, where: string, minTables = 1) {
 
 async function atWidths(role: 'editor' | 'admin' | null, pages: { name: string, path: string, ready?: string, min?: number }[]) {
   for (const width of WIDTHS) {
-    const session: BrowserSession = await openBrowser({ width, height: 900 })
+    // Signed in at desktop width (the header shows the user's name there), then narrowed.
+    const session: BrowserSession = await openBrowser({ width: 1280, height: 900 })
     try {
       if (role) await signInThroughPage(session.page, `${role}@example.com`, DEMO_PASSWORD)
+      await session.page.setViewportSize({ width, height: 900 })
       for (const p of pages) {
         await gotoReady(session.page, p.path)
         if (p.ready) await session.page.locator(p.ready).first().waitFor({ timeout: 20_000 })
@@ -130,11 +134,11 @@ describe('tables at 390, 768 and 1280 px', () => {
         await session.close()
       }
     }
-  })
+  }, PAGE_TIMEOUT)
 
   it('the reader\'s other pages with tables', async () => {
     await atWidths(null, [{ name: 'how-we-test', path: '/how-we-test' }])
-  })
+  }, PAGE_TIMEOUT)
 
   it('the workspace and the desk', async () => {
     const bt = bench.benchTestId
@@ -146,9 +150,9 @@ describe('tables at 390, 768 and 1280 px', () => {
       { name: 'desk', path: '/desk', ready: 'table' },
       { name: 'desk-story', path: `/desk/${storyId}`, min: 0 },
     ])
-  })
+  }, PAGE_TIMEOUT * 2)
 
   it('the admin pages', async () => {
     await atWidths('admin', [{ name: 'users', path: '/admin/users', ready: 'table' }])
-  })
+  }, PAGE_TIMEOUT)
 })
