@@ -150,6 +150,7 @@ export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'PATCH /api/preferences': { expect: SIGNED_IN, path: () => '/api/preferences', body: () => ({}) },
 
   // The token is the credential: whoever holds it gets the same answer.
+  'GET /api/pull-files/sample.csv': { expect: PUBLIC, path: () => '/api/pull-files/sample.csv' },
   'GET /api/preview/:token': { expect: PUBLIC, path: f => `/api/preview/${f.previewToken}` },
   'GET /api/preview/:token/photos/:photoId/:width': { expect: PUBLIC, path: f => `/api/preview/${f.previewToken}/photos/${f.photoId}/${f.photoWidth}` },
 

@@ -2,7 +2,7 @@
 // file named by file, line and column, exclusion, repeatability and the kept original.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { applyCorrection, parsePullCsv, repeatSpread } from '#shared/dyno'
-import type { Client } from '../support/http'
+import { Client } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { createBenchTest, createSetup, expectOk, importFiles, newWriter, pullCsv, pullFile } from '../support/workspace'
 
@@ -209,6 +209,24 @@ describe('commit', () => {
     expect(pulls[0]).toMatchObject({ pointCount: 21, rpmFrom: 3000, rpmTo: 5000 })
     const row = await testDb()('pulls').where({ id: pulls[0].id }).first('column_mapping')
     expect(JSON.parse(row.column_mapping)).toEqual({ 'Crank speed': 'rpm', 'Brake torque': 'torque-lb-ft' })
+  })
+})
+
+describe('the sample file the import page offers', () => {
+  it('downloads without an account as a CSV attachment and imports cleanly: preview without problems, then saved', async () => {
+    const res = await new Client().get('/api/pull-files/sample.csv')
+    expect(res.status).toBe(200)
+    expect(res.headers.get('content-type')).toMatch(/text\/csv/)
+    expect(res.headers.get('content-disposition')).toMatch(/attachment; filename="pullsheet-sample-pull\.csv"/)
+    const text = String(res.body)
+    const [file] = expectOk(await preview([{ name: 'pullsheet-sample-pull.csv', text }])).files
+    expect(file).toMatchObject({ ok: true, problems: [], rpmFrom: 2500, rpmTo: 6500, units: { torque: 'lb-ft', power: 'hp', vacuum: 'inHg' } })
+    // Its own bench test: the repeatability tests below count this one's pulls.
+    const sampleBench = (await createBenchTest(writer)).id
+    const setupId = (await createSetup(writer, sampleBench, 'Baseline')).id
+    const { pulls } = expectOk(await importFiles(writer, sampleBench, [{ name: 'pullsheet-sample-pull.csv', text, setupId, weather: file.weather }]), 201)
+    expect(pulls).toHaveLength(1)
+    expect(pulls[0]).toMatchObject({ setupId, included: true, weather: { baroInHg: 29.42, airTempF: 77, humidityPct: 38 } })
   })
 })
 
