@@ -1,7 +1,7 @@
 import { mkdirSync } from 'node:fs'
 import { afterAll, beforeAll, beforeEach, describe, expect, it, onTestFailed } from 'vitest'
 import type { Page } from 'playwright-core'
-import { camEvents, ciToLiters, displacementCi, reportRound, syntheticPull } from '#shared/dyno'
+import { camEvents, ciToLiters, displacementCi, syntheticPull } from '#shared/dyno'
 import { formatReported } from '#shared/utils/figures'
 import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { BASE_URL, DEMO_PASSWORD } from '../support/http'
@@ -91,9 +91,43 @@ describe('workspace pages beyond the first import', () => {
     for (const [k, v] of Object.entries(cam)) await card.getByTestId(`part-${k}`).fill(v)
     // Cam card definitions (published, shared/dyno cam.ts): overlap = IVO + EVC.
     const e = camEvents({ intakeDuration: 224, exhaustDuration: 232, lsa: 112, icl: 108 })
-    await expect(card.getByTestId('cam-overlap').textContent()).resolves.toContain(`${reportRound(e.overlap, 1).toFixed(1)}°`)
+    expect(e.overlap).toBe(4)
+    await expect(card.getByTestId('cam-overlap').textContent()).resolves.toMatch(/^\s*4°\s*$/)
+
+    // Labels that wrap take their extra line above themselves: the fields of one row of
+    // the card keep their inputs level at every width (issue 15 item 6).
+    for (const width of [640, 820, 1400]) {
+      await page.setViewportSize({ width, height: 1000 })
+      await page.waitForTimeout(100)
+      const rows = await card.evaluate((el) => {
+        const byRow = new Map<number, { label: number, control: number }[]>()
+        for (const field of el.querySelectorAll('.form-field')) {
+          const control = field.querySelector('input, select, textarea')
+          const label = field.querySelector('label')
+          if (!control || !label) continue
+          const top = Math.round(field.getBoundingClientRect().top)
+          byRow.set(top, [...(byRow.get(top) ?? []), { label: label.getBoundingClientRect().height, control: Math.round(control.getBoundingClientRect().top) }])
+        }
+        return [...byRow.values()].filter(r => r.length > 1)
+      })
+      for (const row of rows) expect(new Set(row.map(f => f.control)).size, `controls of one row level at ${width} px: ${JSON.stringify(row)}`).toBe(1)
+      if (width === 640) {
+        expect(rows.length, 'fields side by side at 640 px').toBeGreaterThan(0)
+        await shot(page, 'setup-form-640')
+      }
+    }
+
     await form.getByTestId('setup-add').click()
     await form.getByTestId('setup-added').waitFor()
+    // The setup list shows the cam card as a table, intake beside exhaust, with its
+    // events at 0.050 in (worked by hand from the definitions, check-sources.md:
+    // IVO = 224/2 - 108 = 4 BTDC, EVO = 232/2 + 116 - 180 = 52 BBDC, IVC 40 ABDC, EVC 0).
+    const table = page.getByTestId('setup-cam-table').last()
+    await table.waitFor()
+    const cells = await table.locator('tbody tr').evaluateAll(rows => rows.map(r => [...r.children].map(c => c.textContent!.replace(/\s+/g, ' ').trim())))
+    expect(cells).toContainEqual(['Opens at 0.050 in', '4° BTDC', '52° BBDC'])
+    expect(cells).toContainEqual(['Closes at 0.050 in', '40° ABDC', '0° ATDC'])
+    expect(await page.getByTestId('setup-cam-pair').last().textContent()).toMatch(/Overlap at 0\.050 in\s4°/)
     await shot(page, 'setups')
   })
 
