@@ -41,10 +41,13 @@ export function useStoryTransitions(id: MaybeRefOrGetter<number>) {
  * seen for this version (the approve guard reads that), so it is fetched on purpose,
  * not in the background.
  */
-export function useStoryNumberCheck(id: MaybeRefOrGetter<number>) {
+/** The number check; the desk runs it on opening, the editor when the writer asks (immediate: false). */
+export function useStoryNumberCheck(id: MaybeRefOrGetter<number>, opts: { immediate?: boolean } = {}) {
   return useFetch<NumberCheckResult>(() => storyPath(toValue(id), '/number-check'), {
     key: computed(() => numberCheckKey(toValue(id))),
     server: false,
+    immediate: opts.immediate ?? true,
+    watch: opts.immediate === false ? false : undefined,
   })
 }
 
