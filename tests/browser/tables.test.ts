@@ -10,7 +10,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD, signedIn } from '../support/http'
-import { expectOk } from '../support/workspace'
+import { createSetup, expectOk } from '../support/workspace'
 import { createStory, storyBench, transition, type StoryBench } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
@@ -20,12 +20,17 @@ const PAGE_TIMEOUT = 240_000
 let bench: StoryBench
 let slug = ''
 let storyId = 0
+let uploadToken = ''
 
 beforeAll(async () => {
   mkdirSync(SHOTS, { recursive: true })
   const editor = await signedIn('editor@example.com')
   bench = await storyBench(editor)
-  expectOk(await editor.post(`/api/bench-tests/${bench.benchTestId}/operator-links`, { expiresInHours: 2 }), 201)
+  uploadToken = expectOk(await editor.post(`/api/bench-tests/${bench.benchTestId}/operator-links`, { expiresInHours: 2 }), 201).token
+  // A setup with a cam card, for the setup list's cam table.
+  await createSetup(editor, bench.benchTestId, 'Cam card only (invented)', {
+    parts: [{ category: 'camshaft', maker: 'Invented Cam Works', intakeDuration050Deg: 236, exhaustDuration050Deg: 242, intakeAdvertisedDeg: 288, intakeLiftIn: 0.58, exhaustLiftIn: 0.59, lsaDeg: 112, iclDeg: 108 }],
+  })
   const body = [
     'The long-duration cam against the baseline (synthetic pulls, invented data).',
     '',
@@ -81,7 +86,9 @@ async function expectNoClippedTable(page: Page, where: string, minTables = 1) {
   expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth), `${where}: the page does not scroll sideways`).toBeLessThanOrEqual(0)
 }
 
-async function atWidths(role: 'editor' | 'admin' | null, pages: { name: string, path: string, ready?: string, min?: number }[]) {
+interface TablePage { name: string, path: string, ready?: string, min?: number, prepare?: (page: Page) => Promise<void> }
+
+async function atWidths(role: 'editor' | 'admin' | null, pages: TablePage[]) {
   for (const width of WIDTHS) {
     // Signed in at desktop width (the header shows the user's name there), then narrowed.
     const session: BrowserSession = await openBrowser({ width: 1280, height: 900 })
@@ -91,6 +98,7 @@ async function atWidths(role: 'editor' | 'admin' | null, pages: { name: string, 
       for (const p of pages) {
         await gotoReady(session.page, p.path)
         if (p.ready) await session.page.locator(p.ready).first().waitFor({ timeout: 20_000 })
+        await p.prepare?.(session.page)
         await expectNoClippedTable(session.page, `${p.name} at ${width} px`, p.min)
         if (width !== 768 || p.name.startsWith('story') || p.name === 'analysis') {
           await session.page.screenshot({ path: join(SHOTS, `tables-${p.name}-${width}.png`), fullPage: true })
@@ -137,14 +145,26 @@ describe('tables at 390, 768 and 1280 px', () => {
   }, PAGE_TIMEOUT)
 
   it('the reader\'s other pages with tables', async () => {
-    await atWidths(null, [{ name: 'how-we-test', path: '/how-we-test' }])
+    await atWidths(null, [
+      { name: 'how-we-test', path: '/how-we-test' },
+      // The operator's upload page, with the pull file's description open.
+      { name: 'upload', path: `/upload/${uploadToken}`, ready: '[data-testid="pull-file-format"]', prepare: async (page) => {
+        await page.getByTestId('pull-file-format').locator('summary').click()
+        await page.getByTestId('pull-file-columns').waitFor()
+      } },
+    ])
   }, PAGE_TIMEOUT)
 
   it('the workspace and the desk', async () => {
     const bt = bench.benchTestId
     await atWidths('editor', [
       { name: 'bench-tests', path: '/bench-tests', ready: 'table' },
-      { name: 'pulls', path: `/bench-tests/${bt}/pulls`, ready: 'table' },
+      // The import page with the pull file's description open: its columns table too.
+      { name: 'pulls', path: `/bench-tests/${bt}/pulls`, ready: 'table', min: 2, prepare: async (page) => {
+        await page.getByTestId('pull-file-format').locator('summary').click()
+        await page.getByTestId('pull-file-columns').waitFor()
+      } },
+      { name: 'setups', path: `/bench-tests/${bt}/setups`, ready: '[data-testid="setup-cam-table"]' },
       { name: 'analysis', path: `/bench-tests/${bt}/analysis`, ready: '[data-testid="gains-table"]', min: 3 },
       { name: 'inbox', path: `/bench-tests/${bt}/inbox`, ready: '[data-testid="link-list"]' },
       { name: 'desk', path: '/desk', ready: 'table' },
@@ -153,6 +173,10 @@ describe('tables at 390, 768 and 1280 px', () => {
   }, PAGE_TIMEOUT * 2)
 
   it('the admin pages', async () => {
-    await atWidths('admin', [{ name: 'users', path: '/admin/users', ready: 'table' }])
+    await atWidths('admin', [
+      { name: 'users', path: '/admin/users', ready: 'table' },
+      { name: 'settings', path: '/admin/settings', min: 0 },
+      { name: 'mail', path: '/admin/mail', min: 0 },
+    ])
   }, PAGE_TIMEOUT)
 })
