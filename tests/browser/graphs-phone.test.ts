@@ -89,4 +89,28 @@ describe('graphs at 390 px', () => {
       await session.close()
     }
   }, 180_000)
+
+  it('the analysis graph\'s tooltip reads like the tables: "5,500 rpm", values to one decimal', async () => {
+    const session = await openBrowser({ width: 1280, height: 900 })
+    try {
+      const { page } = session
+      await signInThroughPage(page, 'editor@example.com', DEMO_PASSWORD)
+      await gotoReady(page, `/bench-tests/${bench.benchTestId}/analysis`)
+      const chart = page.getByTestId('analysis-chart').first()
+      await chart.locator('svg text').first().waitFor({ timeout: 30_000 })
+      const box = (await chart.boundingBox())!
+      await page.mouse.move(box.x + box.width * 0.55, box.y + box.height * 0.3)
+      await page.mouse.move(box.x + box.width * 0.56, box.y + box.height * 0.3)
+      // ECharts draws its tooltip as a div inside the chart's box.
+      const tooltip = () => chart.evaluate(el => [...el.querySelectorAll('div')].map(d => d.textContent ?? '').find(t => /rpm/.test(t) && /hp|lb-ft/.test(t)) ?? '')
+      await expect.poll(tooltip, { timeout: 10_000 }).toMatch(/\d,\d{3}\u00a0rpm/)
+      const text = await tooltip()
+      expect(text).not.toMatch(/\d\.\d{2}/)
+      expect(text).toMatch(/\d\.\d\u00a0(hp|lb-ft)/)
+      await page.screenshot({ path: join(SHOTS, 'graph-analysis-tooltip-1280.png') })
+    }
+    finally {
+      await session.close()
+    }
+  }, 180_000)
 })
