@@ -101,8 +101,8 @@ describe('graphs at 390 px', () => {
       const box = (await chart.boundingBox())!
       await page.mouse.move(box.x + box.width * 0.55, box.y + box.height * 0.3)
       await page.mouse.move(box.x + box.width * 0.56, box.y + box.height * 0.3)
-      // ECharts draws its tooltip as a div inside the chart's box.
-      const tooltip = () => chart.evaluate(el => [...el.querySelectorAll('div')].map(d => d.textContent ?? '').find(t => /rpm/.test(t) && /hp|lb-ft/.test(t)) ?? '')
+      // ECharts draws its tooltip as a div inside the chart's box, beside the drawing's SVG.
+      const tooltip = () => chart.evaluate(el => [...el.querySelectorAll('div')].filter(d => !d.querySelector('svg')).map(d => d.textContent ?? '').find(t => /rpm/.test(t) && /hp|lb-ft/.test(t)) ?? '')
       await expect.poll(tooltip, { timeout: 10_000 }).toMatch(/\d,\d{3}\u00a0rpm/)
       const text = await tooltip()
       expect(text).not.toMatch(/\d\.\d{2}/)
