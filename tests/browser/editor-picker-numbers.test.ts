@@ -117,7 +117,8 @@ describe('the editor: figure picker defaults and the writer\'s number check', ()
     await page.keyboard.press('Control+End')
     await page.keyboard.type('\n\nThe long cam made its peak power at 9,990 rpm.')
     await expect.poll(() => page.getByTestId('editor-number-check-stale').count(), { timeout: 10_000 }).toBe(1)
-    expect(await noted.count()).toBe(0)
+    // The preview follows the text a moment later; then the notes of the old text are gone.
+    await expect.poll(() => noted.count(), { timeout: 10_000 }).toBe(0)
     await page.getByTestId('editor-number-check-run').click()
     await expect.poll(() => panel.getAttribute('data-flagged'), { timeout: 20_000 }).toBe('2')
     const rpmNote = (await panel.getByTestId('number-flag-note').nth(1).textContent())!

@@ -160,7 +160,7 @@ describe('tables at 390, 768 and 1280 px', () => {
     await atWidths('editor', [
       { name: 'bench-tests', path: '/bench-tests', ready: 'table' },
       // The import page with the pull file's description open: its columns table too.
-      { name: 'pulls', path: `/bench-tests/${bt}/pulls`, ready: 'table', min: 2, prepare: async (page) => {
+      { name: 'pulls', path: `/bench-tests/${bt}/pulls`, ready: '[data-testid^="pull-group-"] table', min: 2, prepare: async (page) => {
         await page.getByTestId('pull-file-format').locator('summary').click()
         await page.getByTestId('pull-file-columns').waitFor()
       } },
