@@ -28,22 +28,22 @@ export function camCardTable(cam: CamPart): CamCardTable {
   const e = camEvents({ intakeDuration: cam.intakeDuration050Deg, exhaustDuration: cam.exhaustDuration050Deg, lsa: cam.lsaDeg, icl: cam.iclDeg })
   const optional = (v: number | undefined, show: (n: number) => string) => (v === undefined || v === null ? '–' : show(v))
   const rows: CamCardTable['rows'] = [
-    { label: 'Duration at 0.050 in', intake: camDegrees(cam.intakeDuration050Deg), exhaust: camDegrees(cam.exhaustDuration050Deg) },
+    { label: 'Duration at 0.050\u00a0in', intake: camDegrees(cam.intakeDuration050Deg), exhaust: camDegrees(cam.exhaustDuration050Deg) },
   ]
   if (cam.intakeAdvertisedDeg !== undefined || cam.exhaustAdvertisedDeg !== undefined) {
     rows.push({ label: 'Advertised duration', intake: optional(cam.intakeAdvertisedDeg, camDegrees), exhaust: optional(cam.exhaustAdvertisedDeg, camDegrees) })
   }
   rows.push(
     { label: 'Valve lift', intake: inches(cam.intakeLiftIn), exhaust: inches(cam.exhaustLiftIn) },
-    { label: 'Opens at 0.050 in', intake: camEventText(e.ivo, 'BTDC', 'ATDC'), exhaust: camEventText(e.evo, 'BBDC', 'ABDC') },
-    { label: 'Closes at 0.050 in', intake: camEventText(e.ivc, 'ABDC', 'BBDC'), exhaust: camEventText(e.evc, 'ATDC', 'BTDC') },
+    { label: 'Opens at 0.050\u00a0in', intake: camEventText(e.ivo, 'BTDC', 'ATDC'), exhaust: camEventText(e.evo, 'BBDC', 'ABDC') },
+    { label: 'Closes at 0.050\u00a0in', intake: camEventText(e.ivc, 'ABDC', 'BBDC'), exhaust: camEventText(e.evc, 'ATDC', 'BTDC') },
     { label: 'Centerline', intake: `${camDegrees(cam.iclDeg)}\u00a0ATDC`, exhaust: `${camDegrees(e.ecl)}\u00a0BTDC` },
   )
   return {
     rows,
     pair: [
       { label: 'Lobe separation', value: camDegrees(cam.lsaDeg) },
-      { label: 'Overlap at 0.050 in', value: camDegrees(e.overlap) },
+      { label: 'Overlap at 0.050\u00a0in', value: camDegrees(e.overlap) },
       { label: 'Advance', value: camDegrees(e.advance) },
     ],
   }

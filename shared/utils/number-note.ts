@@ -91,7 +91,8 @@ export function findingNote(finding: NumberFinding): string {
       ? `Agrees with ${m.label} (${figure(m.value, finding.unit)}), but that gain is within repeatability: say so rather than call it a gain.`
       : `Agrees with ${m.label} (${figure(m.value, finding.unit)}).`
   }
-  const [first, ...others] = finding.nearest
+  // One label per value: three figures that all come to 6,000 rpm read as one.
+  const [first, ...others] = finding.nearest.filter((n, i, all) => all.findIndex(o => o.value === n.value) === i)
   if (!first) return `The data gives no figure in ${finding.unit}.`
   const more = others.length ? ` Also close: ${others.map(n => `${figure(n.value, n.unit)} (${n.label})`).join('; ')}.` : ''
   return `The data gives ${figure(first.value, first.unit)} (${first.label}).${more}`

@@ -46,6 +46,9 @@ describe('the note of a finding', () => {
       .toBe('The data gives 5,380\u00a0rpm (peak power rpm, long cam). Also close: 4,900\u00a0rpm (peak torque rpm, long cam).')
     expect(findingNote(finding({ nearest: [{ label: 'peak-to-peak power gain', value: 31.4, unit: 'hp' }] }))).toBe('The data gives 31.4\u00a0hp (peak-to-peak power gain).')
     expect(findingNote(finding({ nearest: [] }))).toBe('The data gives no figure in hp.')
+    // Figures that come to the same number are named once.
+    expect(findingNote(finding({ text: '9,990 rpm', value: 9990, unit: 'rpm', nearest: [{ label: 'end of the power band', value: 6000, unit: 'rpm' }, { label: 'rpm of the largest gain', value: 6000, unit: 'rpm' }, { label: 'peak power rpm', value: 5600, unit: 'rpm' }] })))
+      .toBe('The data gives 6,000\u00a0rpm (end of the power band). Also close: 5,600\u00a0rpm (peak power rpm).')
   })
 
   it('says when a number agrees with a gain inside repeatability', () => {

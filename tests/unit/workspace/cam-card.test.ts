@@ -14,11 +14,11 @@ const cam: CamPart = {
 describe('the cam card as a compact table', () => {
   it('puts intake beside exhaust, with the events at 0.050 in on their side of the dead centre', () => {
     expect(camCardTable(cam).rows).toEqual([
-      { label: 'Duration at 0.050 in', intake: '224°', exhaust: '230°' },
+      { label: 'Duration at 0.050\u00a0in', intake: '224°', exhaust: '230°' },
       { label: 'Advertised duration', intake: '276°', exhaust: '–' },
       { label: 'Valve lift', intake: '0.550\u00a0in', exhaust: '0.558\u00a0in' },
-      { label: 'Opens at 0.050 in', intake: '4°\u00a0BTDC', exhaust: '51°\u00a0BBDC' },
-      { label: 'Closes at 0.050 in', intake: '40°\u00a0ABDC', exhaust: '1°\u00a0BTDC' },
+      { label: 'Opens at 0.050\u00a0in', intake: '4°\u00a0BTDC', exhaust: '51°\u00a0BBDC' },
+      { label: 'Closes at 0.050\u00a0in', intake: '40°\u00a0ABDC', exhaust: '1°\u00a0BTDC' },
       { label: 'Centerline', intake: '108°\u00a0ATDC', exhaust: '116°\u00a0BTDC' },
     ])
   })
@@ -26,7 +26,7 @@ describe('the cam card as a compact table', () => {
   it('gives the pair\'s own figures: lobe separation, overlap, advance', () => {
     expect(camCardTable(cam).pair).toEqual([
       { label: 'Lobe separation', value: '112°' },
-      { label: 'Overlap at 0.050 in', value: '3°' },
+      { label: 'Overlap at 0.050\u00a0in', value: '3°' },
       { label: 'Advance', value: '4°' },
     ])
   })
