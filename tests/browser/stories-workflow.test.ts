@@ -172,7 +172,9 @@ describe('a story from the writer\'s first words to publication', () => {
     // The made-up figure is flagged with what the data does give instead.
     const flag = check.getByTestId('number-flag').filter({ hasText: '999 hp' })
     await flag.waitFor()
-    expect(await flag.textContent()).toContain('Nearest:')
+    // The finding quotes its sentence and says what the data gives instead (issue 15 item 5).
+    expect(await flag.getByTestId('number-flag-quote').textContent()).toContain('An early draft claimed 999 hp.')
+    expect(await flag.getByTestId('number-flag-note').textContent()).toMatch(/^The data gives [\d,.]+\u00a0hp \(/)
     // The check records itself as seen for this version; the approve guard reads that.
     await expect.poll(async () => (await bench.writer.client.get(`/api/stories/${storyId}`)).body.story.numberCheckSeenVersion).toBeGreaterThan(0)
     await page.getByTestId('action-approve').click()
