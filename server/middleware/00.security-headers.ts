@@ -1,4 +1,4 @@
-import { isEmbedPath } from '#shared/utils/csp'
+import { isEmbedPath } from '../utils/csp'
 
 // Baseline response headers for every route; pages add their own cache rules.
 // Nothing may be framed by another site except the embed pages, whose CSP

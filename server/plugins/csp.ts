@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { contentSecurityPolicy, embedContentSecurityPolicy, inlineScriptBodies, isEmbedPath } from '#shared/utils/csp'
+import { contentSecurityPolicy, embedContentSecurityPolicy, inlineScriptBodies, isEmbedPath } from '../utils/csp'
 
 const sha256 = (body: string) => createHash('sha256').update(body, 'utf8').digest('base64')
 

@@ -1,4 +1,4 @@
-import { isDatabaseUnavailable } from '#shared/utils/db-unavailable'
+import { isDatabaseUnavailable } from '../utils/db-unavailable'
 
 // Nitro calls the 'error' hook synchronously before rendering the error, so the
 // status can be corrected here: an unreachable database is a clean 503, not a 500.

@@ -1,6 +1,6 @@
 // RSS and the sitemap: published stories only (their published edition's words),
 // absolute URLs from BASE_URL.
-import { escapeHtml } from '#shared/utils/escape-html'
+import { escapeHtml } from './escape-html'
 
 // XML 1.0 has no way to write most control characters: drop them, then escape.
 // eslint-disable-next-line no-control-regex

@@ -1,7 +1,7 @@
 import type { Knex } from 'knex'
 import nodemailer, { type Transporter } from 'nodemailer'
 import type SMTPTransport from 'nodemailer/lib/smtp-transport'
-import { escapeHtml } from '#shared/utils/escape-html'
+import { escapeHtml } from './escape-html'
 
 export interface OutgoingMail { to: string, subject: string, paragraphs: string[], link?: { href: string, label: string } }
 

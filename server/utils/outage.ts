@@ -1,4 +1,4 @@
-import { isDatabaseUnavailable } from '#shared/utils/db-unavailable'
+import { isDatabaseUnavailable } from './db-unavailable'
 
 let databasePort: number | undefined
 

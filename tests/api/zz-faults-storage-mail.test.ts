@@ -55,7 +55,7 @@ describe('storage endpoint down', () => {
 })
 
 // A refused connection counts as "database down" only on the database's port
-// (shared/utils/db-unavailable.ts), so the writer is told which part is down.
+// (server/utils/db-unavailable.ts), so the writer is told which part is down.
 describe('storage endpoint down, the message', () => {
   it('names the storage, not the database', () => {
     expect(lastOutageMessage).toMatch(/storage|store|file|photo/i)

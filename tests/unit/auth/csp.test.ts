@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto'
 import { describe, expect, it } from 'vitest'
-import { contentSecurityPolicy, inlineScriptBodies } from '#shared/utils/csp'
+import { contentSecurityPolicy, inlineScriptBodies } from '../../../server/utils/csp'
 
 // Source: W3C Content Security Policy Level 3, hash-source (published): the hash is
 // base64 of the SHA-256 of the script element's text, exactly as written.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { isDatabaseUnavailable } from '#shared/utils/db-unavailable'
+import { isDatabaseUnavailable } from '../../../server/utils/db-unavailable'
 
 // Error shapes as Node's net module and the mysql2 driver produce them (from memory,
 // confirmed by the fault drills in tests/api/zz-faults-*.test.ts).

@@ -7,7 +7,7 @@ import { PRINT_LINE_PT, PRINT_PALETTE, mmToPt, printGraphOption, printGraphSize 
 import { standaloneFigure, standaloneFigureLabel, standaloneFigures } from '#shared/figures/story-figure-list'
 import { SOCIAL_CARD, keyGain, socialCardPath, socialCardSvg, wrapText } from '#shared/figures/social-card'
 import { OKABE_ITO, curveStyle, overlayChartOptions } from '#shared/utils/chart-options'
-import { contentSecurityPolicy, embedContentSecurityPolicy, isEmbedPath } from '#shared/utils/csp'
+import { contentSecurityPolicy, embedContentSecurityPolicy, isEmbedPath } from '../../../server/utils/csp'
 import { DEFAULT_SITE_SETTINGS } from '#shared/types/site-settings'
 import { source } from '../stories/figure-source'
 
