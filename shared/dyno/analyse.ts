@@ -13,9 +13,11 @@ import { downsampleForDisplay } from './display'
 import { repeatSpread } from './repeat'
 import { resultsTable, type ResultsRow, type RowGains } from './table'
 import type { AtRpm, CorrectionStandard, PullPoint, Weather } from './types'
-import { hpToKw, lbFtToNm } from './units'
+import { unitScale, type UnitScale } from './unit-scale'
 
 export { interpolateAt } from './interpolate'
+// Unit scaling lives apart so the reader's page can scale curves without this module's imports.
+export { scaleCurve, unitScale, type UnitScale } from './unit-scale'
 
 /** One included pull as stored: its points on the analysis grid (ANALYSIS_GRID.curveStepRpm). */
 export interface BenchPull {
@@ -104,13 +106,6 @@ export function setupCurve(pulls: readonly (readonly PullPoint[])[]): SetupCurve
 }
 
 // ---------- units ----------
-
-export interface UnitScale { power: number, torque: number }
-
-/** Multipliers from hp and lb-ft to the chosen units (SI conversions in units.ts). */
-export function unitScale(units: AnalysisUnits): UnitScale {
-  return units === 'kw-nm' ? { power: hpToKw(1), torque: lbFtToNm(1) } : { power: 1, torque: 1 }
-}
 
 const at = (a: AtRpm, k: number): AtRpm => ({ value: a.value * k, rpm: a.rpm })
 
@@ -265,10 +260,4 @@ export function analyseBench(data: BenchData, opts: AnalyseOptions = {}): BenchA
     notes,
     comparisons,
   }
-}
-
-/** Drawn curve points in other units (for tables built from an hp and lb-ft copy). */
-export function scaleCurve(points: readonly CurvePoint[], units: AnalysisUnits): CurvePoint[] {
-  const s = unitScale(units)
-  return points.map(p => ({ rpm: p.rpm, torque: p.torque * s.torque, power: p.power * s.power }))
 }

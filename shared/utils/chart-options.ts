@@ -12,7 +12,7 @@ import type {
   TooltipComponentOption,
 } from 'echarts/components'
 import type { CurvePoint } from '../types/workspace'
-import { interpolateAt } from '../dyno/analyse'
+import { interpolateAt } from '../dyno/interpolate'
 
 export type PullChartOption = ComposeOption<
   | LineSeriesOption

@@ -3,7 +3,7 @@
 // curves in which units, the gain curves against any setup, the rows of the data
 // table under each graph and the written summary for screen readers. Pure: the
 // server's SVG render, the live graph and the tables all read the same numbers.
-import { scaleCurve } from '../dyno/analyse'
+import { scaleCurve } from '../dyno/unit-scale'
 import type { AnalysisGains, AnalysisResponse, CurvePoint } from '../types/workspace'
 import { formatFigureNumber, type FigureComparison } from '../types/story-figures'
 import { curveValueAt, type ChartCurve, type ChartUnits } from './chart-options'
