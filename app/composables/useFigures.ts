@@ -1,6 +1,6 @@
 import type { InjectionKey } from 'vue'
 import type { StoryFigures } from '#shared/types/stories'
-import { figureSourceOf, setupsUsed } from '#shared/utils/story-view'
+import { figureSourceOf, setupsUsed } from '#shared/utils/story-figure-use'
 
 /**
  * Who is looking: readers see a figure that cannot be drawn as a quiet gap; the
