@@ -1,4 +1,6 @@
-import type { MagazineStoryResponse } from '#shared/types/magazine'
+import type { MagazineStoryResponse, ReaderPreferences } from '#shared/types/magazine'
+import { memoOn } from '#shared/utils/object-memo'
+import { withPageCurves } from '#shared/utils/page-curves'
 import type { StoryFigures } from '#shared/types/stories'
 import type { AnalysisUnits } from '#shared/types/analysis'
 import type { AnalysisResponse } from '#shared/types/workspace'
@@ -18,8 +20,29 @@ export function useStoryPage(slug: MaybeRefOrGetter<string>) {
   const get = $fetch as (path: string) => Promise<unknown>
   return useAsyncData<MagazineStoryResponse>(
     () => storyPageKey(toValue(slug)),
-    () => (render ? render.readerStory(toValue(slug)) : get(storyApiPath(toValue(slug))) as Promise<MagazineStoryResponse>),
+    // The server render thins the curves once per kept view (withPageCurves): the page and its
+    // payload carry them once, lightly; a browser navigating here gets the API's full view.
+    () => (render
+      ? render.readerStory(toValue(slug)).then(view => memoOn(view, 'page-curves', () => withPageCurves(view)))
+      : get(storyApiPath(toValue(slug))) as Promise<MagazineStoryResponse>),
   )
+}
+
+/** Set when a graph of the page turns live: the page then wants the edition's full curves. */
+export const useFullCurvesWanted = () => useState<boolean>('story-full-curves', () => false)
+
+/**
+ * The reader's standard and units to fetch the figures in, or null for the page's own
+ * figures. The page's own standard and units are fetched too once a graph is live and
+ * the page carries thinned curves (`curvesStepRpm`), so the readout reads the full ones.
+ */
+export function figuresWanted(view: MagazineStoryResponse | null | undefined, prefs: ReaderPreferences, liveGraph: boolean): { standard: CorrectionStandard, units: AnalysisUnits } | null {
+  const a = view?.figures.analysis
+  if (!a) return null
+  const standard = prefs.standard && correctable(a) ? prefs.standard : a.standard
+  const units = prefs.units ?? a.units.id
+  if (standard !== a.standard || units !== a.units.id) return { standard, units }
+  return liveGraph && view.curvesStepRpm ? { standard, units } : null
 }
 
 /**

@@ -47,4 +47,9 @@ export interface ReaderPreferences { units: AnalysisUnits | null, standard: Corr
 export interface MagazineStoryResponse extends StoryReaderView {
   canonicalUrl: string
   siteUrl: string
+  /**
+   * Set on the view a story page is server-rendered from: its drawn curves carry only
+   * every this many rpm (shared/utils/page-curves.ts); a live graph fetches the full ones.
+   */
+  curvesStepRpm?: number
 }

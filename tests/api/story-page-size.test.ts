@@ -47,6 +47,8 @@ describe('the story page on the wire', () => {
     const identity = await page('identity')
     const view = JSON.stringify(expectOk(await new Client().get(`/api/magazine/stories/${slug}`)))
     console.log(`story page: ${(br.wire / 1024).toFixed(1)} KB Brotli, ${(gzip.wire / 1024).toFixed(1)} KB gzip, ${(identity.wire / 1024).toFixed(1)} KB uncompressed; curve points in the page ${pointsIn(identity.html)}, in the API's view ${pointsIn(view)}`)
+    // Curves once: the page carries each curve every 50 rpm (the API's view: every 10 rpm).
+    expect(pointsIn(identity.html) * 3).toBeLessThan(pointsIn(view))
     expect(br.wire).toBeLessThanOrEqual(40 * 1024)
     expect(gzip.wire).toBeLessThanOrEqual(40 * 1024)
   })
