@@ -2,9 +2,13 @@
 // decoding, JSON parsing, the schema and shared/dyno's parser all stay off the
 // server's event loop. Bundled into .output/server/workers/pull-check-worker.mjs by the
 // build hook in nuxt.config.ts. Answers are plain data; errors come back as answers.
-import { PreviewPullsBody } from '../../shared/types/workspace'
+import type { ZodType } from 'zod'
+import { CommitPullsBody, PreviewPullsBody } from '../../shared/types/workspace'
+import type { CorrectionStandard } from '../../shared/dyno/index'
 import { checkPullFile, decodeUploadedBytes } from '../utils/pull-check'
-import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckTask } from '../utils/pull-check-task'
+import { checkPullBatchFiles } from '../utils/pull-batch-check'
+import { encodePoints } from '../utils/pull-points'
+import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckRefusal, type PullCheckTask, type PullImportAnswer } from '../utils/pull-check-task'
 
 function lines(text: string): number {
   let n = 0
@@ -12,21 +16,56 @@ function lines(text: string): number {
   return n + 1
 }
 
-export default function checkInWorker(task: PullCheckTask): PullCheckAnswer {
-  if (task.kind === 'files') {
-    return { ok: true, previews: task.files.map(f => checkPullFile({ name: f.name, text: decodeUploadedBytes(f.bytes), bytes: f.bytes.byteLength, mapping: f.mapping }).preview) }
-  }
+/** The name of files[index] of a body not yet validated, for messages only. */
+function fileName(json: unknown, index: unknown): string | undefined {
+  const files = typeof json === 'object' && json !== null ? (json as { files?: unknown }).files : undefined
+  const item = Array.isArray(files) && typeof index === 'number' ? files[index] as { name?: unknown } | undefined : undefined
+  return typeof item?.name === 'string' && item.name.trim() ? item.name.trim().slice(0, 255) : undefined
+}
+
+/**
+ * JSON body -> validated files with the rows cap, or the 400/413 the route answers.
+ * `named` puts the file's name before each of its problems, as server/utils/validation.ts's batchParser does.
+ */
+function readFiles<T extends { files: { text: string }[] }>(body: Uint8Array, schema: ZodType<T>, named: boolean): T | PullCheckRefusal {
   let json: unknown
-  try { json = JSON.parse(Buffer.from(task.body.buffer, task.body.byteOffset, task.body.byteLength).toString('utf8')) }
+  try { json = JSON.parse(Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8')) }
   catch { return { ok: false, status: 400, message: 'The request body is not valid JSON.' } }
-  const parsed = PreviewPullsBody.safeParse(json)
+  const parsed = schema.safeParse(json)
   if (!parsed.success) {
-    const issues = parsed.error.issues.map(i => ({ path: i.path.join('.') || '(body)', message: i.message }))
-    return { ok: false, status: 400, message: issues.map(i => `${i.path}: ${i.message}`).join('; '), issues }
+    const issues = parsed.error.issues.map((i) => {
+      const name = named && i.path[0] === 'files' ? fileName(json, i.path[1]) : undefined
+      return { path: i.path.join('.') || '(body)', message: name ? `${name}: ${i.message}` : i.message }
+    })
+    return { ok: false, status: 400, message: issues.map(i => `${i.path}: ${i.message}`).join('; '), data: { issues } }
   }
   const rows = parsed.data.files.reduce((n, f) => n + lines(f.text), 0)
   if (rows > pullCheckRowsCap) {
     return { ok: false, status: 413, message: `These files have ${rows.toLocaleString('en-US')} lines together; one check takes up to ${pullCheckRowsCap.toLocaleString('en-US')}. Check fewer files at once.` }
   }
-  return { ok: true, previews: parsed.data.files.map(f => checkPullFile(f).preview) }
+  return parsed.data
+}
+
+function importBody(body: Uint8Array, standard: CorrectionStandard): PullImportAnswer {
+  const files = readFiles(body, CommitPullsBody, true)
+  if ('ok' in files) return files
+  const result = checkPullBatchFiles(files.files, standard)
+  if (!result.ok) return { ok: false, status: 422, message: result.message, data: result.data }
+  // The text goes back once (input.text is what is stored); the points as one string.
+  const pulls = result.pulls.map(p => ({
+    ...p,
+    checked: { ...p.checked, text: '', parsed: p.checked.parsed && { ...p.checked.parsed, points: [], problems: [] } },
+    encodedPoints: encodePoints(p.checked.parsed!.points),
+  }))
+  return { ok: true, pulls }
+}
+
+export default function checkInWorker(task: PullCheckTask): PullCheckAnswer | PullImportAnswer {
+  if (task.kind === 'files') {
+    return { ok: true, previews: task.files.map(f => checkPullFile({ name: f.name, text: decodeUploadedBytes(f.bytes), bytes: f.bytes.byteLength, mapping: f.mapping }).preview) }
+  }
+  if (task.kind === 'import-body') return importBody(task.body, task.standard)
+  const files = readFiles(task.body, PreviewPullsBody, false)
+  if ('ok' in files) return files
+  return { ok: true, previews: files.files.map(f => checkPullFile(f).preview) }
 }

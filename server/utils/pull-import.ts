@@ -3,8 +3,8 @@
 // uses explicitly, because the seed runs under plain tsx, outside Nitro.
 import type { Knex } from 'knex'
 import type { ColumnRole, CorrectionStandard, Problem, Weather } from '../../shared/dyno/index'
-import type { ImportProblem, ImportRefusedData } from '../../shared/types/workspace'
-import { capProblems, checkPullFile, weatherProblems, type CheckedPullFile } from './pull-check'
+import type { CheckedPullFile } from './pull-check'
+import { checkPullBatchFiles } from './pull-batch-check'
 import { encodePoints } from './pull-points'
 import { httpError } from './workspace-http'
 import { bumpLiveMark } from './live-marks'
@@ -27,30 +27,18 @@ export interface CheckedPull {
   checked: CheckedPullFile
   /** Warnings kept with the pull (errors refuse the batch). */
   problems: Problem[]
+  /**
+   * The points already encoded (encodePoints) when the check ran in the pool: a string
+   * crosses back to the server's thread in one copy, a million point objects do not.
+   */
+  encodedPoints?: string
 }
 
-/**
- * Checks every file of a batch; when any has an error the whole batch is refused (422)
- * with every file's preview and a message naming the first error's file, line and column.
- */
+/** checkPullBatchFiles, a refused batch thrown as 422 with every file's preview. */
 export function checkPullBatch(files: readonly PullToImport[], standard: CorrectionStandard): CheckedPull[] {
-  const checked = files.map((input) => {
-    const file = checkPullFile({ name: input.name, text: input.text, bytes: input.bytes, mapping: input.mapping })
-    file.preview.problems.push(...weatherProblems(input.name, input.weather, input.dynoCorrected === true, standard))
-    file.preview.ok = !file.preview.problems.some(p => p.severity === 'error')
-    return file
-  })
-  const errors: ImportProblem[] = checked.flatMap(c => c.preview.problems.filter(p => p.severity === 'error'))
-  if (errors.length) {
-    const refusedFiles = new Set(errors.map(e => e.file)).size
-    const data: ImportRefusedData = { files: checked.map(c => c.preview), problems: errors }
-    throw httpError(422, `Nothing was saved: ${refusedFiles} of ${files.length} file${files.length === 1 ? '' : 's'} ${refusedFiles === 1 ? 'has' : 'have'} errors. ${errors[0]!.text}${errors.length > 1 ? ` (and ${errors.length - 1} more)` : ''}`, data)
-  }
-  return checked.map((c, i) => ({
-    input: files[i]!,
-    checked: c,
-    problems: capProblems(c.preview.problems.filter(p => p.severity !== 'error').map(({ severity, line, column, message }) => ({ severity, ...(line === undefined ? {} : { line }), ...(column ? { column } : {}), message }))),
-  }))
+  const result = checkPullBatchFiles(files, standard)
+  if (!result.ok) throw httpError(422, result.message, result.data)
+  return result.pulls
 }
 
 /**
@@ -60,7 +48,7 @@ export function checkPullBatch(files: readonly PullToImport[], standard: Correct
  */
 export async function insertCheckedPulls(trx: Knex.Transaction, benchTestId: number, pulls: readonly CheckedPull[], uploader: PullUploader, issuePath = (index: number) => `files.${index}.setupId`): Promise<number[]> {
   const ids: number[] = []
-  for (const [index, { input, checked, problems }] of pulls.entries()) {
+  for (const [index, { input, checked, problems, encodedPoints }] of pulls.entries()) {
     const setup = await trx('setups').where({ id: input.setupId, bench_test_id: benchTestId }).whereNull('deleted_at').forShare().first('id')
     if (!setup) {
       const message = `${input.name}: setup ${input.setupId} is not a setup of this bench test (or it was deleted); nothing was saved`
@@ -81,13 +69,13 @@ export async function insertCheckedPulls(trx: Knex.Transaction, benchTestId: num
       humidity_pct: input.weather?.humidityPct ?? null,
       dyno_corrected: input.dynoCorrected === true,
       problems: JSON.stringify(problems),
-      points: encodePoints(parsed.points),
+      points: encodedPoints ?? encodePoints(parsed.points),
       column_mapping: input.mapping ? JSON.stringify(input.mapping) : null,
       torque_unit: parsed.units.torque ?? null,
       power_unit: parsed.units.power ?? null,
       vacuum_unit: parsed.units.vacuum ?? null,
       row_count: checked.rowCount,
-      point_count: parsed.points.length,
+      point_count: preview.pointCount,
       rpm_from: preview.rpmFrom,
       rpm_to: preview.rpmTo,
       peak_power_hp: preview.peakPower!.value,

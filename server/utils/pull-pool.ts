@@ -7,9 +7,10 @@ import { availableParallelism } from 'node:os'
 import { Piscina } from 'piscina'
 import { createError } from 'h3'
 import checkInWorker from '../pull-worker/pull-check-worker'
-import type { ColumnRole } from '../../shared/dyno/index'
+import type { ColumnRole, CorrectionStandard } from '../../shared/dyno/index'
 import type { PullFilePreview } from '../../shared/types/workspace'
-import type { PullCheckAnswer, PullCheckTask } from './pull-check-task'
+import type { PullCheckAnswer, PullCheckRefusal, PullCheckTask, PullImportAnswer } from './pull-check-task'
+import type { CheckedPull } from './pull-import'
 import { findWorkerFile } from './worker-files'
 
 const WORKER_FILE = 'pull-check-worker.mjs'
@@ -50,12 +51,12 @@ export function pullCheckStats(): { threads: number, running: number, queued: nu
 
 const busy = () => createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: 'The server is checking as many files as it can right now. Try again in a few seconds.', data: { retryAfterSeconds: 5 } })
 
-async function run(task: PullCheckTask, transfer: ArrayBuffer[]): Promise<PullCheckAnswer> {
+async function run(task: PullCheckTask, transfer: ArrayBuffer[]): Promise<PullCheckAnswer | PullImportAnswer> {
   const p = checkPool()
   if (!p) return checkInWorker(task)
   try {
     // Piscina's TransferList type follows postMessage's older overload; an ArrayBuffer list is what it moves.
-    return await p.run(task, { transferList: transfer as unknown as Parameters<Piscina['run']>[1] extends { transferList?: infer T } ? T : never }) as PullCheckAnswer
+    return await p.run(task, { transferList: transfer as unknown as Parameters<Piscina['run']>[1] extends { transferList?: infer T } ? T : never }) as PullCheckAnswer | PullImportAnswer
   }
   catch (error) {
     if (/queue is at limit/i.test((error as Error).message)) throw busy()
@@ -63,18 +64,38 @@ async function run(task: PullCheckTask, transfer: ArrayBuffer[]): Promise<PullCh
   }
 }
 
-function answered(answer: PullCheckAnswer): PullFilePreview[] {
-  if (answer.ok) return answer.previews
-  const statusMessage = answer.status === 400 ? 'Validation Error' : 'Content Too Large'
-  throw createError({ statusCode: answer.status, statusMessage, message: answer.message, ...(answer.issues ? { data: { issues: answer.issues } } : {}) })
+const STATUS_TEXT = { 400: 'Validation Error', 413: 'Content Too Large', 422: 'Unprocessable Content' } as const
+
+function refused(answer: PullCheckRefusal): never {
+  throw createError({ statusCode: answer.status, statusMessage: STATUS_TEXT[answer.status], message: answer.message, ...(answer.data === undefined ? {} : { data: answer.data }) })
+}
+
+function answered(answer: PullCheckAnswer | PullImportAnswer): PullFilePreview[] {
+  if (!answer.ok) refused(answer)
+  return (answer as { previews: PullFilePreview[] }).previews
+}
+
+/** A request body as the worker takes it; only a buffer of its own may be moved (small ones share Node's pool). */
+function bodyTask(body: Buffer): { bytes: Uint8Array, transfer: ArrayBuffer[] } {
+  const own = body.byteOffset === 0 && body.byteLength === body.buffer.byteLength
+  return { bytes: new Uint8Array(body.buffer, body.byteOffset, body.byteLength), transfer: own ? [body.buffer as ArrayBuffer] : [] }
 }
 
 /** A preview request's JSON body, parsed, validated and checked in the pool. */
 export async function checkPreviewBody(body: Buffer): Promise<PullFilePreview[]> {
-  const bytes = new Uint8Array(body.buffer, body.byteOffset, body.byteLength)
-  // Only a buffer of its own may be moved to the worker (small ones share Node's pool).
-  const own = body.byteOffset === 0 && body.byteLength === body.buffer.byteLength
-  return answered(await run({ kind: 'preview-body', body: bytes }, own ? [body.buffer as ArrayBuffer] : []))
+  const { bytes, transfer } = bodyTask(body)
+  return answered(await run({ kind: 'preview-body', body: bytes }, transfer))
+}
+
+/**
+ * An import request's JSON body, parsed, validated (CommitPullsBody) and checked as a
+ * batch in the pool: 400/413 as the preview answers them, 422 for a refused batch.
+ */
+export async function checkImportBody(body: Buffer, standard: CorrectionStandard): Promise<CheckedPull[]> {
+  const { bytes, transfer } = bodyTask(body)
+  const answer = await run({ kind: 'import-body', body: bytes, standard }, transfer)
+  if (!answer.ok) refused(answer)
+  return (answer as { pulls: CheckedPull[] }).pulls
 }
 
 /** Uploaded files checked in the pool; previews in the same order. */

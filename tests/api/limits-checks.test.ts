@@ -3,21 +3,25 @@
 // queueing without end.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Client } from '../support/http'
-import { closeTestDb } from '../support/db'
+import { closeTestDb, testDb } from '../support/db'
 import { signedIn } from '../support/http'
-import { createBenchTest, DEMO, expectOk, newWriter, pullCsv } from '../support/workspace'
+import { createBenchTest, createSetup, DEMO, expectOk, newWriter, pullCsv } from '../support/workspace'
 
 afterAll(closeTestDb)
 
 let writer: Client
 let benchTestId: number
+let setupId: number
 
 beforeAll(async () => {
   writer = (await newWriter()).client
   benchTestId = (await createBenchTest(writer, 'Check pool bench test')).id
+  setupId = (await createSetup(writer, benchTestId, 'Pool baseline')).id
 })
 
 const preview = (files: unknown[]) => writer.post(`/api/bench-tests/${benchTestId}/pulls/preview`, { files })
+const importing = (files: { name: string, text: string }[]) => writer.post(`/api/bench-tests/${benchTestId}/pulls/import`, { files: files.map(f => ({ ...f, setupId, weather: null, dynoCorrected: true })) })
+const savedPulls = async () => Number((await testDb()('pulls').where({ bench_test_id: benchTestId }).count({ n: '*' }).first())!.n)
 
 describe('pull checks in the worker pool', () => {
   it('checks in a worker thread of the built server, with the same answers', async () => {
@@ -55,5 +59,39 @@ describe('pull checks in the worker pool', () => {
     expect(Number(busy[0]!.headers.get('retry-after'))).toBeGreaterThan(0)
     expect(statuses.filter(s => s === 200).length).toBeGreaterThan(0)
     expect((await preview([{ name: 'after.csv', text: pullCsv({ seed: 23 }).csv }])).status).toBe(200)
+  })
+
+  it('imports through the pool: saved pulls, the same 400 and 422 answers, the rows cap', async () => {
+    const pull = pullCsv({ seed: 24 })
+    const saved = expectOk(await importing([{ name: 'pooled.csv', text: pull.csv }]), 201)
+    expect(saved.pulls[0]).toMatchObject({ fileName: 'pooled.csv' })
+    const row = await testDb()('pulls').where({ id: saved.pulls[0].id }).first('point_count', 'points', 'original_text')
+    expect(row.point_count).toBe(pull.points.length)
+    expect(JSON.parse(row.points).rpm).toHaveLength(pull.points.length)
+    expect(row.original_text).toBe(pull.csv)
+    const before = await savedPulls()
+    const bad = await writer.post(`/api/bench-tests/${benchTestId}/pulls/import`, { files: [{ name: 'nameless-setup.csv', text: pull.csv, weather: null, dynoCorrected: true }] })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues).toContainEqual(expect.objectContaining({ path: 'files.0.setupId', message: expect.stringMatching(/^nameless-setup\.csv: /) }))
+    const broken = await importing([{ name: 'broken.csv', text: 'RPM,Torque (lb-ft)\n3000,400\n\u0000' }])
+    expect(broken.status).toBe(422)
+    expect(broken.body.message).toMatch(/Nothing was saved: 1 of 1 file has errors\. broken\.csv, line 3: the file holds NUL bytes/)
+    expect(broken.body.data.files[0]).toMatchObject({ name: 'broken.csv', ok: false })
+    const lines = `RPM,Torque (lb-ft)\n${'3000,400\n'.repeat(199_000)}`
+    const many = await importing(Array.from({ length: 5 }, (_, i) => ({ name: `rows-${i}.csv`, text: lines })))
+    expect(many.status).toBe(413)
+    expect(await savedPulls()).toBe(before)
+  })
+
+  it('answers an import 503 with Retry-After when the pool is full, saving nothing for it', async () => {
+    const text = `${pullCsv({ seed: 25 }).csv}${'# padding line for a slower check\n'.repeat(50_000)}`
+    const before = await savedPulls()
+    const replies = await Promise.all(Array.from({ length: 20 }, (_, i) => importing([{ name: `busy-${i}.csv`, text }])))
+    const statuses = replies.map(r => r.status)
+    expect(statuses.every(s => s === 201 || s === 503)).toBe(true)
+    const busy = replies.filter(r => r.status === 503)
+    expect(busy.length).toBeGreaterThan(0)
+    expect(Number(busy[0]!.headers.get('retry-after'))).toBeGreaterThan(0)
+    expect(await savedPulls()).toBe(before + statuses.filter(s => s === 201).length)
   })
 })

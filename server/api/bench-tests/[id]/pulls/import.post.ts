@@ -1,9 +1,15 @@
-import { CommitPullsBody, type CommitPullsResponse } from '#shared/types/workspace'
+import type { CommitPullsResponse } from '#shared/types/workspace'
+import type { CorrectionStandard } from '#shared/dyno'
 
+// The body (60 MB at most, server/utils/body-limit.ts) goes to the check pool as
+// received: the worker parses the JSON, validates it (CommitPullsBody) and checks the
+// files; this thread only saves the checked pulls in one transaction.
 export default defineEventHandler(async (event): Promise<CommitPullsResponse> => {
-  const { user, params } = await requireWorkspace(event, BenchTestParams)
-  const { files } = await readValidatedBody(event, batchParser(CommitPullsBody, 'files', input => listOf(input, 'files').map(f => nameOf(f, 'name'))))
-  const ids = await importPulls(useDb(), params.id, files, { userId: user.id })
+  const { user, params, benchTest } = await requireWorkspace(event, BenchTestParams)
+  const body = await readLimitedBody(event)
+  const checked = await checkImportBody(body, benchTest.default_standard as CorrectionStandard)
+  const db = useDb()
+  const ids = await db.transaction(trx => insertCheckedPulls(trx, params.id, checked, { userId: user.id }))
   setResponseStatus(event, 201)
-  return { pulls: await pullSummaries(useDb(), params.id, ids) }
+  return { pulls: await pullSummaries(db, params.id, ids) }
 })
