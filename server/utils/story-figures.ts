@@ -8,7 +8,7 @@ import type { NumberCheckResult, StoryFigures, StoryPhoto, StoryReaderView } fro
 import type { CurrentUser } from '#shared/types/users'
 import { checkNumbers, comparedPairs, figureCandidates, pairsNamedInBody, type CandidateSource } from '#shared/utils/number-check'
 import { figureProblems } from '#shared/utils/story-body'
-import type { SetupsUsed } from '#shared/utils/story-view'
+import type { SetupsUsed } from '#shared/utils/story-figure-use'
 
 type Db = Knex | Knex.Transaction
 

@@ -12,7 +12,8 @@ import type { AnalysisUnits } from '#shared/types/analysis'
 import type { CorrectionStandard } from '#shared/dyno'
 import type { BenchTest, BuildSheet, Setup } from '#shared/types/workspace'
 import type { DayReport } from '#shared/types/dyno-day'
-import { canonicalJson, movedFigures, setupsUsed, type SetupsUsed, STORY_ROUNDING, storyFiguresFromData } from '#shared/utils/story-view'
+import { canonicalJson, movedFigures, STORY_ROUNDING, storyFiguresFromData } from '#shared/utils/story-view'
+import { setupsUsed, type SetupsUsed } from '#shared/utils/story-figure-use'
 import { LruCache } from '#shared/utils/lru-cache'
 
 type Db = Knex | Knex.Transaction

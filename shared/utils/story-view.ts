@@ -13,9 +13,6 @@ import { findFigures } from './story-markup'
 import { formatReported } from './figures'
 import { figureSourceOf } from './story-figure-use'
 
-// The parts the reader's page needs live apart, free of the analysis and its imports.
-export { figureSourceOf, setupsUsed, type SetupsUsed } from './story-figure-use'
-
 export interface FigureSettings {
   /** Default: the data's (the bench test's standard when frozen). */
   standard?: CorrectionStandard

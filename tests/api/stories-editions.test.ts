@@ -6,7 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { INLINE_FIGURES, inlineFigureValue } from '#shared/types/story-figures'
 import { gainCurves, graphSetups, overlayCurves, resultsTableRows } from '#shared/utils/figure-data'
-import { figureSourceOf } from '#shared/utils/story-view'
+import { figureSourceOf } from '#shared/utils/story-figure-use'
 import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { buildDemoBenchTest } from '../../server/db/demo/bench-tests'

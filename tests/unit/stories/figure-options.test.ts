@@ -2,7 +2,7 @@
 // read without zod by shared/types/story-figures.ts: the server on save, the
 // editor's picker and the figure components in the reader's browser all use these.
 import { describe, expect, it } from 'vitest'
-import { setupsUsed } from '#shared/utils/story-view'
+import { setupsUsed } from '#shared/utils/story-figure-use'
 import { CamCardProps, DayReportProps, FigureValueProps, GainGraphProps, GalleryProps, PhotoProps, PullGraphProps, ResultsTableProps } from '#shared/types/story-figures'
 
 const issuesOf = (result: { success: boolean, error?: { issues: { path: (string | number)[], message: string }[] } }) =>
