@@ -6,7 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
-import { DEMO, createBenchTest, createSetup, expectOk, pullCsv, uploadFiles } from '../support/workspace'
+import { DEMO, createBenchTest, createSetup, expectOk, pullCsv, uploadFiles, withCoolant } from '../support/workspace'
 import { createStory, transition } from '../support/stories'
 
 afterAll(closeTestDb)
@@ -17,12 +17,6 @@ let token: string
 let steps: { id: number }[]
 
 const planPath = (id: number) => `/api/bench-tests/${id}/plan`
-
-function withCoolant(csv: string, coolantF: number): string {
-  const lines = csv.split('\r\n')
-  const header = lines.findIndex(l => l.startsWith('RPM'))
-  return lines.map((l, i) => (i === header ? `${l},Coolant (F)` : i > header && l ? `${l},${coolantF}` : l)).join('\r\n')
-}
 
 async function send(name: string, seed: number, peakTorqueLbFt = 430) {
   const res = await uploadFiles(token, [{ name, text: withCoolant(pullCsv({ seed, peakTorqueLbFt }).csv, 185) }])

@@ -4,7 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
-import { createBenchTest, createSetup, expectOk, newWriter, pullCsv, uploadFiles } from '../support/workspace'
+import { createBenchTest, createSetup, expectOk, newWriter, pullCsv, uploadFiles, withCoolant } from '../support/workspace'
 
 afterAll(closeTestDb)
 
@@ -15,13 +15,6 @@ let token: string
 
 const acceptance = { rpmFrom: 3000, rpmTo: 6000, coolantF: { min: 170, max: 200 }, oilF: null, airTempF: null, baroInHg: null, repeatPct: 1 }
 const plan = (bt: number) => `/api/bench-tests/${bt}/plan`
-
-/** A synthetic pull with a coolant channel added (the operator's dyno logs it as an extra column). */
-function withCoolant(csv: string, coolantF: number): string {
-  const lines = csv.split('\r\n')
-  const header = lines.findIndex(l => l.startsWith('RPM'))
-  return lines.map((l, i) => (i === header ? `${l},Coolant (F)` : i > header && l ? `${l},${coolantF}` : l)).join('\r\n')
-}
 
 beforeAll(async () => {
   writer = (await newWriter()).client

@@ -13,7 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD, signedIn, type Client } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
-import { DEMO, expectOk, pullCsv, uploadFiles } from '../support/workspace'
+import { DEMO, expectOk, pullCsv, uploadFiles, withCoolant } from '../support/workspace'
 import { createStoryFor, pick, saveStateIs, typeInBody } from './stories-fixtures'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
@@ -23,12 +23,6 @@ let editor: BrowserSession
 let api: Client
 let bt: { id: number }
 let token: string
-
-function withCoolant(csv: string, coolantF: number): string {
-  const lines = csv.split('\r\n')
-  const header = lines.findIndex(l => l.startsWith('RPM'))
-  return lines.map((l, i) => (i === header ? `${l},Coolant (F)` : i > header && l ? `${l},${coolantF}` : l)).join('\r\n')
-}
 
 async function shoot(page: BrowserSession['page'], name: string) {
   await page.screenshot({ path: join(SHOTS, `${name}-1280.png`), fullPage: true })

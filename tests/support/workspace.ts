@@ -34,6 +34,13 @@ export function pullCsv(opts: Partial<SyntheticPullOptions> & { seed: number }) 
   return syntheticPull({ ...V8_MODEL, fromRpm: 3000, toRpm: 6000, stepRpm: 20, ...opts })
 }
 
+/** A synthetic pull with a coolant channel added (the operator's dyno logs it as an extra column). */
+export function withCoolant(csv: string, coolantF: number): string {
+  const lines = csv.split('\r\n')
+  const header = lines.findIndex(l => l.startsWith('RPM'))
+  return lines.map((l, i) => (i === header ? `${l},Coolant (F)` : i > header && l ? `${l},${coolantF}` : l)).join('\r\n')
+}
+
 /** One pull file ready for the import body, assigned to a setup with the weather its file states. */
 export function pullFile(name: string, setupId: number, opts: Partial<SyntheticPullOptions> & { seed: number }) {
   const pull = pullCsv(opts)
