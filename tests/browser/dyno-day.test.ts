@@ -83,15 +83,17 @@ describe('the whole dyno day on the demo bench test', () => {
     await gotoReady(editor.page, `/bench-tests/${bt.id}/day`)
     for (const s of [writer, editor]) await s.page.locator('[data-testid="day-live"][data-state="live"]').waitFor({ timeout: 10_000 })
 
+    // Both files go through before the times are judged, so a slow moment on a busy
+    // machine fails this test alone, not the rest of the day.
+    const seen: number[] = []
     for (const [n, coolant] of [[1, 184], [2, 209]] as const) {
       const sent = Date.now()
       const res = await uploadFiles(token, [{ name: `factory-${n}.csv`, text: withCoolant(pullCsv({ seed: 70 + n }).csv, coolant) }])
       expect(res.body.received[0].filedTo).toBe('Factory cam')
-      const seen = await Promise.all([writer, editor].map(async (s) => {
-        await s.page.locator('[data-testid="day-pulls"] > li').nth(n - 1).waitFor({ timeout: 5000 })
+      seen.push(...await Promise.all([writer, editor].map(async (s) => {
+        await s.page.locator('[data-testid="day-pulls"] > li').nth(n - 1).waitFor({ timeout: 10_000 })
         return Date.now() - sent
-      }))
-      for (const ms of seen) expect(ms).toBeLessThan(2000)
+      })))
     }
     const second = editor.page.locator('[data-testid="day-pulls"] > li').nth(1)
     expect(await second.getAttribute('data-flagged')).toBe('true')
@@ -99,6 +101,7 @@ describe('the whole dyno day on the demo bench test', () => {
     await expect.poll(() => writer.page.getByTestId('day-verdict').textContent(), { timeout: 5000 }).toMatch(/two pulls within \d\.\d percent: enough|spread \d\.\d percent: make another pull/)
     await writer.page.getByTestId('day-chart').waitFor()
     await writer.page.getByTestId('results-table').waitFor()
+    for (const ms of seen) expect(ms, 'from the upload to the pull on both watchers\' pages').toBeLessThan(2000)
   })
 
   it('ticks the checklist and swaps to the next cam; the gain over the previous setup shows', async () => {
