@@ -127,7 +127,7 @@ describe('workspace pages beyond the first import', () => {
     const cells = await table.locator('tbody tr').evaluateAll(rows => rows.map(r => [...r.children].map(c => c.textContent!.replace(/\s+/g, ' ').trim())))
     expect(cells).toContainEqual(['Opens at 0.050 in', '4° BTDC', '52° BBDC'])
     expect(cells).toContainEqual(['Closes at 0.050 in', '40° ABDC', '0° ATDC'])
-    expect(await page.getByTestId('setup-cam-pair').last().textContent()).toMatch(/Overlap at 0\.050 in\s4°/)
+    expect(await page.getByTestId('setup-cam-pair').last().textContent()).toMatch(/Overlap at 0\.050\sin\s4°/)
     await shot(page, 'setups')
   })
 
