@@ -4,7 +4,7 @@ import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
 import { closeTestDb, testDb } from '../support/db'
-import { Client, DEMO_PASSWORD, signedIn } from '../support/http'
+import { Client, DEMO_PASSWORD, signedIn, spareAppPort } from '../support/http'
 import { createBenchTest, makeJpeg, uploadPhoto, userId, waitForPhoto } from '../support/photos'
 
 // Servers of their own, on a queue of their own (PHOTO_QUEUE), so the main test
@@ -48,7 +48,7 @@ describe('a crash mid-job', () => {
     const desk = await signedIn('writer@example.com')
     const bench = await createBenchTest(await userId(desk), 'Crash while sizing')
 
-    const doomed = await server(3021, { PHOTO_QUEUE: queue, PHOTO_TEST_FAULT: 'hang' })
+    const doomed = await server(spareAppPort(11), { PHOTO_QUEUE: queue, PHOTO_TEST_FAULT: 'hang' })
     const res = await uploadPhoto(doomed.client, bench, await makeJpeg(1000, 700), 'mid-job.jpg')
     expect(res.status).toBe(201)
     const photoId = res.body.photo.id
@@ -67,7 +67,7 @@ describe('a crash mid-job', () => {
     expect(new Date(renewed.lease_until).getTime()).toBeGreaterThan(new Date(running.lease_until).getTime())
 
     await killGroup(doomed.child, 'SIGKILL')
-    await server(3022, { PHOTO_QUEUE: queue })
+    await server(spareAppPort(12), { PHOTO_QUEUE: queue })
     const ready = await waitForPhoto(desk, bench, photoId, p => p.status === 'ready', 40_000)
     expect(ready.variants.map(v => v.width)).toEqual([480, 960, 1000])
     // The photo row says ready a statement before the job row says done: wait for the job.
@@ -84,7 +84,7 @@ describe('a crash mid-job', () => {
     const desk = await signedIn('writer@example.com')
     const bench = await createBenchTest(await userId(desk), 'Worker dies')
 
-    const flaky = await server(3023, { PHOTO_QUEUE: queue, PHOTO_TEST_FAULT: 'exit-first-try', PHOTO_RETRY_DELAY_SECONDS: '1' })
+    const flaky = await server(spareAppPort(13), { PHOTO_QUEUE: queue, PHOTO_TEST_FAULT: 'exit-first-try', PHOTO_RETRY_DELAY_SECONDS: '1' })
     const res = await uploadPhoto(flaky.client, bench, await makeJpeg(800, 500), 'worker-dies.jpg')
     const ready = await waitForPhoto(desk, bench, res.body.photo.id, p => p.status === 'ready', 40_000)
     expect(ready.variants.map(v => v.width)).toEqual([480, 800])

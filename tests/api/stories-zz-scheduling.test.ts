@@ -5,12 +5,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
-import { Client, signedIn } from '../support/http'
+import { Client, signedIn, spareAppPort } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO, expectOk, newWriter } from '../support/workspace'
 import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
 
-const SECOND_PORT = 3011
+const SECOND_PORT = spareAppPort(1)
 let second: ChildProcess | undefined
 let writer: { client: Client, email: string }
 let editorA: Client

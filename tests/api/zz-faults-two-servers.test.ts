@@ -8,18 +8,19 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
-import { Client, signedIn, uniqueEmail } from '../support/http'
+import { Client, signedIn, spareAppPort, uniqueEmail } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { caughtMail } from '../support/mail'
 import { createStory, storyBench, storyBody, transition } from '../support/stories'
 import { DEMO, createBenchTest, createSetup, expectOk, importFiles, newWriter, pullFile } from '../support/workspace'
 
-const SECOND = 'http://127.0.0.1:3012'
+const SECOND_PORT = spareAppPort(2)
+const SECOND = `http://127.0.0.1:${SECOND_PORT}`
 const extra = () => JSON.parse(process.env.TEST_SERVER_EXTRA ?? '{}') as Record<string, string>
 let second: ChildProcess | undefined
 
 beforeAll(async () => {
-  second = await startApp(localEnv('test'), extra(), 3012)
+  second = await startApp(localEnv('test'), extra(), SECOND_PORT)
 }, 60_000)
 
 afterAll(async () => {
@@ -82,11 +83,12 @@ describe('two app servers', () => {
 
 describe('an app server killed in the middle of an import', () => {
   it('leaves no partial batch, and the main server imports the same batch whole', async () => {
-    const victim = await startApp(localEnv('test'), extra(), 3013)
+    const victimPort = spareAppPort(3)
+    const victim = await startApp(localEnv('test'), extra(), victimPort)
     const { client, email } = await newWriter()
     const bt = await createBenchTest(client)
     const setup = await createSetup(client, bt.id, 'Baseline')
-    const onVictim = new Client('http://127.0.0.1:3013')
+    const onVictim = new Client(`http://127.0.0.1:${victimPort}`)
     expectOk(await onVictim.post('/api/auth/login', { email, password: 'a-long-test-password' }))
     const files = Array.from({ length: 20 }, (_, i) => pullFile(`killed-${i}.csv`, setup.id, { seed: 6100 + i, stepRpm: 10 }))
     const inFlight = importFiles(onVictim, bt.id, files).catch((e: Error) => ({ status: 0, body: e.message }))

@@ -2,6 +2,12 @@
 // and sends the Origin header a browser would, unless a test says otherwise.
 export const BASE_URL = process.env.TEST_BASE_URL ?? 'http://127.0.0.1:3010'
 
+// Tests that start extra app servers take ports just above the main one, so two
+// checkouts with different TEST_PORTs can run their tests side by side.
+export function spareAppPort(offset: number): number {
+  return Number(new URL(BASE_URL).port) + offset
+}
+
 export interface Reply<T = any> { status: number, body: T, headers: Headers }
 
 export class Client {
