@@ -43,7 +43,7 @@ export default defineNuxtConfig({
     // Photos are sized in worker threads by server/workers/photo-worker.mjs, which
     // the bundle never imports: ship its packages and copy it beside the server.
     externals: { traceInclude: [fileURLToPath(new URL('./server/workers/photo-worker.mjs', import.meta.url))] },
-    // The print face for figure exports and social cards (server/utils/figure-export/fonts.ts).
+    // The print face for figure exports and social cards (server/services/figures/fonts.ts).
     serverAssets: [{
       baseName: 'print-fonts',
       dir: fileURLToPath(new URL('./node_modules/@fontsource/merriweather/files', import.meta.url)),
@@ -53,7 +53,7 @@ export default defineNuxtConfig({
       async compiled(nitro) {
         const { cp } = await import('node:fs/promises')
         await cp(`${nitro.options.rootDir}/server/workers`, `${nitro.options.output.serverDir}/workers`, { recursive: true })
-        // Pull checks run in piscina worker threads (server/utils/pull-pool.ts): the
+        // Pull checks run in piscina worker threads (server/services/workspace/pull-pool.ts): the
         // worker is TypeScript with shared/dyno behind it, bundled into one plain file.
         const { build } = await import('esbuild')
         await build({

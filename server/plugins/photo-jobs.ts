@@ -1,3 +1,5 @@
+import { startPhotoJobLoop } from '~~/server/services/photos/jobs'
+import { sweepPhotoStorage } from '~~/server/services/photos/sweep'
 // Every app server sizes photos (row locks keep each job on one) and sweeps
 // storage a little after start and then every few hours.
 export default defineNitroPlugin((nitroApp) => {

@@ -1,3 +1,4 @@
+import { publishJobHandlers } from '~~/server/services/desk/publish'
 // Every app server runs this loop; the job row's SKIP LOCKED claim and the story's
 // row lock keep each publication to exactly one. The first tick runs at startup,
 // so stories whose time passed while no server was up go live straight away.

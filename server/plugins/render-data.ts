@@ -1,3 +1,6 @@
+import { MagazineSlugParams } from '~~/server/services/magazine/lists'
+import { getSiteSettings } from '~~/server/services/magazine/settings'
+import { readerStoryFor } from '~~/server/services/magazine/story'
 // A server render used to read the user and the story through the app's own API:
 // an internal request each, with its own event, runtime config copy, session
 // unsealing and JSON both ways, about a fifth of an uncached story page. The render

@@ -1,3 +1,4 @@
+import { retryAfterOf } from '~~/server/services/workspace/pull-pool'
 // A refusal that says when to come back (a full check pool, a rate limit) carries
 // data.retryAfterSeconds; it becomes the Retry-After header, whichever route threw it.
 export default defineNitroPlugin((nitroApp) => {

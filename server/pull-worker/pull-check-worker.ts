@@ -1,14 +1,14 @@
-// The pull check in a worker thread (server/utils/pull-pool.ts runs it through piscina):
+// The pull check in a worker thread (server/services/workspace/pull-pool.ts runs it through piscina):
 // decoding, JSON parsing, the schema and shared/dyno's parser all stay off the
 // server's event loop. Bundled into .output/server/workers/pull-check-worker.mjs by the
 // build hook in nuxt.config.ts. Answers are plain data; errors come back as answers.
 import type { ZodType } from 'zod'
 import { CommitPullsBody, PreviewPullsBody } from '../../shared/types/workspace'
 import type { CorrectionStandard } from '../../shared/dyno/index'
-import { checkPullFile, decodeUploadedBytes } from '../utils/pull-check'
-import { checkPullBatchFiles } from '../utils/pull-batch-check'
-import { encodePoints } from '../utils/pull-points'
-import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckRefusal, type PullCheckTask, type PullImportAnswer } from '../utils/pull-check-task'
+import { checkPullFile, decodeUploadedBytes } from '../services/workspace/pull-check'
+import { checkPullBatchFiles } from '../services/workspace/pull-batch-check'
+import { encodePoints } from '../services/workspace/pull-points'
+import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckRefusal, type PullCheckTask, type PullImportAnswer } from '../services/workspace/pull-check-task'
 
 function lines(text: string): number {
   let n = 0

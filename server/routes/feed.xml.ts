@@ -1,3 +1,4 @@
+import { FEED_CSP, rssFeedXml } from '~~/server/services/magazine/feeds'
 // RSS 2.0 of the newest published stories.
 export default defineEventHandler(async (event) => {
   // application/xml rather than rss+xml: browsers show it (styled by /feed.css) instead of

@@ -1,5 +1,7 @@
 import { monitorEventLoopDelay, type ELDHistogram } from 'node:perf_hooks'
 import type { ListingCheck } from './storage-privacy'
+import { photoJobsActive } from '~~/server/services/photos/jobs'
+import { pullCheckStats } from '~~/server/services/workspace/pull-pool'
 
 // How long the event loop was held up since the last reset, and how much memory
 // the process holds: the figures the photo benchmark reads (bench/photos.bench.ts).

@@ -1,4 +1,4 @@
-// Sizes one photo (see server/utils/photo-pool.ts): decode, apply the camera's
+// Sizes one photo (see server/services/photos/pool.ts): decode, apply the camera's
 // orientation, flatten transparency, make the web sizes as JPEG. Runs one task
 // and ends. It runs as a short-lived child process (the default: its memory goes
 // back to the system when it exits) or as a worker thread (PHOTO_WORKER_MODE=thread).

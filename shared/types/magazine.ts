@@ -1,4 +1,4 @@
-// What the reader's pages get from /api/magazine (server/utils/magazine.ts).
+// What the reader's pages get from /api/magazine (server/services/magazine/lists.ts).
 import { z } from 'zod'
 import type { CorrectionStandard } from '../dyno/index'
 import type { EngineFamily, PartType } from './catalog'

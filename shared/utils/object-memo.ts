@@ -1,6 +1,6 @@
 // Results worked out from an object that never changes in place, kept beside it
 // for as long as the object lives. On the server a published story's view is one
-// kept, frozen object shared by every render (server/utils/magazine-story.ts), so
+// kept, frozen object shared by every render (server/services/magazine/story.ts), so
 // what the page derives from it is worked out once per story version instead of
 // once per page; in the browser each fetched view simply gets its own.
 const memos = new WeakMap<object, Map<string, unknown>>()

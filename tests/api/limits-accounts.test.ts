@@ -1,5 +1,5 @@
 // Rate limits on every account route, through the one limiter of the sign-in
-// (server/utils/login-limit.ts), and answers that do not tell which addresses have
+// (server/services/accounts/login-limit.ts), and answers that do not tell which addresses have
 // accounts. The test server trusts X-Forwarded-For (TRUST_PROXY=1), so each test
 // comes from its own documentation-range address (RFC 5737) and counts alone.
 import { afterAll, describe, expect, it } from 'vitest'

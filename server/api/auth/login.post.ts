@@ -1,4 +1,6 @@
 import { LoginBody } from '#shared/types/users'
+import { assertLoginAllowed, clearLoginFailures, clientIp, recordLoginFailure } from '~~/server/services/accounts/login-limit'
+import { findUserByEmail } from '~~/server/services/accounts/users'
 
 const VAGUE = 'That e-mail and password do not match an active account.'
 

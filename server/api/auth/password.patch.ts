@@ -1,5 +1,7 @@
 import { PasswordChangeBody } from '#shared/types/users'
 import { rolesAtLeast } from '#shared/types/roles'
+import { assertLoginAllowed, clientIp, recordLoginFailure } from '~~/server/services/accounts/login-limit'
+import { setPassword, verifyUserPassword } from '~~/server/services/accounts/users'
 
 // A wrong current password counts as a failed sign-in of the account (and its limit
 // applies here too), so a stolen session cannot be used to guess the password.

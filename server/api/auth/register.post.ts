@@ -1,4 +1,6 @@
 import { RegisterBody } from '#shared/types/users'
+import { assertAttemptAllowed, clientIp, recordAttempt } from '~~/server/services/accounts/login-limit'
+import { afterAnswer, registerOrTellOwner } from '~~/server/services/accounts/requests'
 
 /**
  * Readers sign themselves up; other roles are given by an admin. The answer is the

@@ -1,4 +1,6 @@
 import { ConfirmQuery } from '#shared/types/workspace'
+import { deleteBenchTest } from '~~/server/services/workspace/bench-tests'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event) => {
   const { user, params } = await requireWorkspace(event, BenchTestParams)

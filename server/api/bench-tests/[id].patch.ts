@@ -1,4 +1,6 @@
 import { UpdateBenchTestBody } from '#shared/types/workspace'
+import { updateBenchTest } from '~~/server/services/workspace/bench-tests'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event) => {
   const { user, params } = await requireWorkspace(event, BenchTestParams)

@@ -1,5 +1,6 @@
 import { rolesAtLeast } from '#shared/types/roles'
 import { BenchTestListQuery } from '#shared/types/workspace'
+import { listBenchTests } from '~~/server/services/workspace/bench-tests'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))

@@ -1,5 +1,6 @@
 import { rolesAtLeast } from '#shared/types/roles'
 import { CreateBenchTestBody } from '#shared/types/workspace'
+import { createBenchTest } from '~~/server/services/workspace/bench-test-core'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))

@@ -1,5 +1,6 @@
 import { DeskQueueQuery, type DeskQueueResponse } from '#shared/types/stories'
 import { rolesAtLeast } from '#shared/types/roles'
+import { deskQueue } from '~~/server/services/stories/lists'
 
 export default defineEventHandler(async (event): Promise<DeskQueueResponse> => {
   const user = await requireRole(event, ...rolesAtLeast('editor'))

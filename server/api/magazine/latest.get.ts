@@ -1,3 +1,5 @@
+import { latestStories, MagazineListQuery } from '~~/server/services/magazine/lists'
+
 export default defineEventHandler(async (event) => {
   const { page } = await getValidatedQuery(event, zodParser(MagazineListQuery))
   return latestStories(page)

@@ -1,3 +1,5 @@
+import { MagazineSearchQuery, searchStories } from '~~/server/services/magazine/lists'
+
 export default defineEventHandler(async (event) => {
   const { q, page } = await getValidatedQuery(event, zodParser(MagazineSearchQuery))
   return { q, ...await searchStories(q, page) }

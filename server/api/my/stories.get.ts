@@ -1,5 +1,6 @@
 import { MyStoriesQuery, type MyStoriesResponse } from '#shared/types/stories'
 import { rolesAtLeast } from '#shared/types/roles'
+import { myStories } from '~~/server/services/stories/lists'
 
 export default defineEventHandler(async (event): Promise<MyStoriesResponse> => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))

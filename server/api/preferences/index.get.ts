@@ -1,4 +1,5 @@
 import { rolesAtLeast } from '#shared/types/roles'
+import { readerPreferences } from '~~/server/services/magazine/preferences'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('reader'))

@@ -1,5 +1,6 @@
 import { rolesAtLeast } from '#shared/types/roles'
 import { ReaderPreferencesBody } from '#shared/types/magazine'
+import { saveReaderPreferences } from '~~/server/services/magazine/preferences'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('reader'))

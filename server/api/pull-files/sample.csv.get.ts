@@ -2,6 +2,7 @@
 // columns and weather lines Pullsheet reads, synthetic (invented) data. Public: the
 // dyno operator has no account, and the file holds nothing but the model's numbers.
 import { SAMPLE_PULL_FILE_NAME, samplePullCsv } from '#shared/dyno'
+import { sendCsvFile } from '~~/server/services/workspace/route'
 
 const text = samplePullCsv()
 

@@ -1,4 +1,6 @@
 import { UpdateStoryBody, type StoryResponse } from '#shared/types/stories'
+import { requireStoryRoute } from '~~/server/services/stories/route'
+import { saveStoryContent } from '~~/server/services/stories/save'
 
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const { user, params } = await requireStoryRoute(event)

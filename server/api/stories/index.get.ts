@@ -1,5 +1,6 @@
 import { StoryListQuery, type StoryListResponse } from '#shared/types/stories'
 import { rolesAtLeast } from '#shared/types/roles'
+import { listStories } from '~~/server/services/stories/lists'
 
 export default defineEventHandler(async (event): Promise<StoryListResponse> => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))

@@ -1,5 +1,6 @@
 import { CreateStoryBody, type StoryResponse } from '#shared/types/stories'
 import { rolesAtLeast } from '#shared/types/roles'
+import { createStoryDraft } from '~~/server/services/stories/save'
 
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))

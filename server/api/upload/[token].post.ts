@@ -1,4 +1,7 @@
 import type { UploadReceipt } from '#shared/types/workspace'
+import { openUploadLink, receiveUploads } from '~~/server/services/workspace/operator-links'
+import { readOperatorUpload } from '~~/server/services/workspace/operator-upload'
+import { uploadToken } from '~~/server/services/workspace/route'
 
 // Public: files for the bench test's inbox, as multipart/form-data parts named "file".
 // The link is checked before any of the body is read.

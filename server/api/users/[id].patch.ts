@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { UpdateUserBody } from '#shared/types/users'
+import { updateUser } from '~~/server/services/accounts/users'
 
 const Params = z.object({ id: z.coerce.number().int().positive() })
 

@@ -1,4 +1,5 @@
 import { CreateUserBody } from '#shared/types/users'
+import { createUser, issueUserToken } from '~~/server/services/accounts/users'
 
 /** With a password the account is ready; without one the person is invited by e-mail. */
 export default defineEventHandler(async (event) => {

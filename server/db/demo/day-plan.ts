@@ -4,10 +4,10 @@
 // day (tests/browser/dyno-day.test.ts) runs on it. Invented shop, parts and makers.
 import type { Knex } from 'knex'
 import type { SavePlanInput } from '../../../shared/types/dyno-day'
-import { createBenchTest } from '../../utils/bench-test-core'
-import { putBuildSheet } from '../../utils/build-sheets'
-import { saveTestPlan } from '../../utils/test-plans'
-import { createSetup } from '../../utils/setups'
+import { createBenchTest } from '../../services/workspace/bench-test-core'
+import { putBuildSheet } from '../../services/workspace/build-sheets'
+import { saveTestPlan } from '../../services/workspace/test-plans'
+import { createSetup } from '../../services/workspace/setups'
 
 export const DEMO_DAY_SLUG = 'three-cams-on-a-5-3-l-pushrod-v8-test-day'
 

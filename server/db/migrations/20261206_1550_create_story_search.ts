@@ -5,7 +5,7 @@ import type { Knex } from 'knex'
 // drops short words and stop words ("V8", "5.7", "350", "and"); a plain index on the
 // token answers "starts with" for any of them. story_search_docs says which version
 // of the story the tokens were taken from, so the index can be caught up by comparing
-// versions (server/utils/magazine-search.ts), whoever wrote the story.
+// versions (server/services/magazine/search.ts), whoever wrote the story.
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('story_search_docs', (t) => {
     t.integer('story_id').unsigned().primary().references('stories.id').onDelete('CASCADE')

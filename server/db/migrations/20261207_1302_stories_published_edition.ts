@@ -2,7 +2,7 @@ import type { Knex } from 'knex'
 
 // The edition readers see, named on the story row, so the lists, search and feeds
 // join it by key instead of looking for the newest published edition of each story.
-// Set whenever an edition goes live (server/utils/story-view.ts). No foreign key: the
+// Set whenever an edition goes live (server/services/stories/editions.ts). No foreign key: the
 // editions already cascade from their story, and a key back would make deleting a story a
 // cascade that returns to the row being deleted; editions are never deleted on their own.
 export async function up(knex: Knex): Promise<void> {

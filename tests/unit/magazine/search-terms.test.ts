@@ -1,10 +1,10 @@
-// One tokenizer for the readers' words and the stories' words (server/utils/magazine-search-terms.ts).
+// One tokenizer for the readers' words and the stories' words (server/services/magazine/search-terms.ts).
 // The cases are the searches readers made that a FULLTEXT index could not answer
 // (issue 15 item 12): short words, numbers with a point, stop words.
 // Source for what FULLTEXT drops: MariaDB Knowledge Base, "Full-Text Index Overview"
 // (innodb_ft_min_token_size 3, the InnoDB stop-word list) (published).
 import { describe, expect, it } from 'vitest'
-import { indexTokens, queryTokens, searchTokens, storySearchTerms, SEARCH_WEIGHTS } from '../../../server/utils/magazine-search-terms'
+import { indexTokens, queryTokens, searchTokens, storySearchTerms, SEARCH_WEIGHTS } from '../../../server/services/magazine/search-terms'
 
 describe('queryTokens', () => {
   it.each([

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { exifOrientation, inspectPhotoBytes, PhotoRefusal } from '../../../server/utils/photo-bytes'
+import { exifOrientation, inspectPhotoBytes, PhotoRefusal } from '../../../server/services/photos/bytes'
 import { tiffBytes, withExif } from '../../support/exif'
 import { makeJpeg, makePng, makeWebp } from '../../support/photos'
 

@@ -1,7 +1,7 @@
 import { Readable } from 'node:stream'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PHOTO_JPEG_QUALITY, PHOTO_WIDTHS } from '#shared/types/photos'
-import { PhotoTaskError, runPhotoTask, type SizedPhoto } from '../../../server/utils/photo-pool'
+import { PhotoTaskError, runPhotoTask, type SizedPhoto } from '../../../server/services/photos/pool'
 import { carriesExif, withExif } from '../../support/exif'
 import { decode, makeJpeg, makePng, pixel, type Paint } from '../../support/photos'
 

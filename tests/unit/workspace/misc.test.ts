@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { LruCache } from '../../../shared/utils/lru-cache'
-import { slugify } from '../../../server/utils/bench-test-core'
-import { cleanFileName, hashToken } from '../../../server/utils/operator-links'
-import { isoDay, parseJsonColumn } from '../../../server/utils/workspace-rows'
+import { slugify } from '../../../server/services/workspace/bench-test-core'
+import { cleanFileName, hashToken } from '../../../server/services/workspace/operator-links'
+import { isoDay, parseJsonColumn } from '../../../server/utils/rows'
 
 describe('LruCache', () => {
   it('peeks without changing which entry goes first', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { capProblems, checkPullFile, countLines, decodeUploadedBytes, problemText, weatherProblems } from '../../../server/utils/pull-check'
+import { capProblems, checkPullFile, countLines, decodeUploadedBytes, problemText, weatherProblems } from '../../../server/services/workspace/pull-check'
 
 function file(rows = 21): string {
   const lines = ['# baro: 29.9 inHg', '# air temp: 70 F', '# humidity: 40 %', 'RPM,Torque (lb-ft)']

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { decodePoints, encodePoints } from '../../../server/utils/pull-points'
+import { decodePoints, encodePoints } from '../../../server/services/workspace/pull-points'
 
 describe('points as one JSON document', () => {
   const points = [

@@ -1,4 +1,6 @@
 import { ResetConfirmBody } from '#shared/types/users'
+import { assertAttemptAllowed, clientIp, recordAttempt } from '~~/server/services/accounts/login-limit'
+import { redeemUserToken } from '~~/server/services/accounts/users'
 
 // Reset and invitation links. A link that does not work costs a lookup (no password
 // hashing) and counts against the IP; the body itself is small (16 KB at most).

@@ -1,8 +1,10 @@
 import { ResetRequestBody } from '#shared/types/users'
+import { assertAttemptAllowed, clientIp, recordAttempt } from '~~/server/services/accounts/login-limit'
+import { afterAnswer, mailPasswordReset } from '~~/server/services/accounts/requests'
 
 /**
  * Always answers the same, at once: whether the address has an account is decided
- * after the answer (server/utils/account-requests.ts), so neither the words nor the
+ * after the answer (server/services/accounts/requests.ts), so neither the words nor the
  * time tell. Limited per address and per IP.
  */
 export default defineEventHandler(async (event) => {

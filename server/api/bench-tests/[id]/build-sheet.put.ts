@@ -1,4 +1,6 @@
 import { BuildSheetBody } from '#shared/types/workspace'
+import { putBuildSheet } from '~~/server/services/workspace/build-sheets'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event) => {
   const { params } = await requireWorkspace(event, BenchTestParams)

@@ -1,4 +1,6 @@
 import { rolesAtLeast } from '#shared/types/roles'
+import { restoreBenchTest } from '~~/server/services/workspace/bench-tests'
+import { BenchTestParams } from '~~/server/services/workspace/route'
 
 // Not requireWorkspace: the bench test is deleted, so it is looked up among the deleted ones.
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,7 @@
 import { z } from 'zod'
 import type { StoryFigures } from '#shared/types/stories'
+import { getStoryFigures } from '~~/server/services/stories/figures'
+import { requireStoryRoute } from '~~/server/services/stories/route'
 
 // ?uses=: the setups the editor's draft names ("all", or ids like "12,13"), so the
 // preview is built from the same data an approval would freeze; default the saved body's.

@@ -1,4 +1,7 @@
 import { z } from 'zod'
+import { findReadablePhoto } from '~~/server/services/photos/access'
+import { parseStoredVariants } from '~~/server/services/photos/photos'
+import { streamPhotoObject, whilePhotoStorageAnswers } from '~~/server/services/photos/storage'
 
 const Params = z.object({
   id: z.coerce.number().int().positive(),

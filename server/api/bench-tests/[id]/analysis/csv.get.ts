@@ -1,4 +1,8 @@
 import { AnalysisQuery } from '#shared/types/workspace'
+import { runAnalysis } from '~~/server/services/workspace/analysis'
+import { analysisCsv } from '~~/server/services/workspace/analysis-csv'
+import { findBenchTest } from '~~/server/services/workspace/bench-tests'
+import { BenchTestParams, requireWorkspace, sendCsvFile } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event) => {
   const { user, params } = await requireWorkspace(event, BenchTestParams)

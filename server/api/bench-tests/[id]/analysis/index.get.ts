@@ -1,4 +1,7 @@
 import { AnalysisQuery, type AnalysisResponse } from '#shared/types/workspace'
+import { runAnalysis } from '~~/server/services/workspace/analysis'
+import { findBenchTest } from '~~/server/services/workspace/bench-tests'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event): Promise<AnalysisResponse> => {
   const { user, params } = await requireWorkspace(event, BenchTestParams)

@@ -1,3 +1,5 @@
+import { liveMark, watchLiveMark } from '~~/server/services/workspace/live-marks'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 // Server-sent events for the dyno day view: one "change" event, with the bench test's
 // change counter as its id, whenever the counter moves. The browser's EventSource
 // reconnects by itself and sends Last-Event-ID; a counter that moved meanwhile is sent

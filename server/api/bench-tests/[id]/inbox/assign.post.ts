@@ -1,5 +1,8 @@
 import type { CorrectionStandard } from '#shared/dyno'
 import { AssignInboxBody, type CommitPullsResponse } from '#shared/types/workspace'
+import { assignInboxFiles, inboxFileNames } from '~~/server/services/workspace/inbox'
+import { pullSummaries } from '~~/server/services/workspace/pulls'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event): Promise<CommitPullsResponse> => {
   const { user, params, benchTest } = await requireWorkspace(event, BenchTestParams)

@@ -1,4 +1,6 @@
 import { InboxListQuery } from '#shared/types/workspace'
+import { listInbox } from '~~/server/services/workspace/inbox'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event) => {
   const { params } = await requireWorkspace(event, BenchTestParams)

@@ -1,4 +1,6 @@
 import { CreateOperatorLinkBody, type CreatedOperatorLink } from '#shared/types/workspace'
+import { createOperatorLink } from '~~/server/services/workspace/operator-links'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event): Promise<CreatedOperatorLink> => {
   const { user, params } = await requireWorkspace(event, BenchTestParams)

@@ -1,5 +1,8 @@
 import { z } from 'zod'
 import { rolesAtLeast } from '#shared/types/roles'
+import { storeUploadedPhoto } from '~~/server/services/photos/photos'
+import { readPhotoUpload } from '~~/server/services/photos/upload'
+import { requireBenchTest } from '~~/server/services/workspace/bench-test-access'
 
 const Params = z.object({ id: z.coerce.number().int().positive() })
 

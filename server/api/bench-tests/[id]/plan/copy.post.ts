@@ -1,4 +1,7 @@
 import { CopyPlanBody, type TestPlan } from '#shared/types/dyno-day'
+import { requireBenchTest } from '~~/server/services/workspace/bench-test-access'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
+import { copyTestPlan } from '~~/server/services/workspace/test-plans'
 
 export default defineEventHandler(async (event): Promise<{ plan: TestPlan }> => {
   const { user, params } = await requireWorkspace(event, BenchTestParams)

@@ -1,4 +1,6 @@
 import { UpdatePullBody } from '#shared/types/workspace'
+import { updatePull } from '~~/server/services/workspace/pulls'
+import { PullParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event) => {
   const { params } = await requireWorkspace(event, PullParams)

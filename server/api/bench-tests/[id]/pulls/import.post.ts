@@ -1,5 +1,9 @@
 import type { CommitPullsResponse } from '#shared/types/workspace'
 import type { CorrectionStandard } from '#shared/dyno'
+import { insertCheckedPulls } from '~~/server/services/workspace/pull-import'
+import { checkImportBody } from '~~/server/services/workspace/pull-pool'
+import { pullSummaries } from '~~/server/services/workspace/pulls'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 // The body (60 MB at most, server/utils/body-limit.ts) goes to the check pool as
 // received: the worker parses the JSON, validates it (CommitPullsBody) and checks the

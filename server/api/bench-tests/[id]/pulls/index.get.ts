@@ -1,4 +1,6 @@
 import type { CorrectionStandard } from '#shared/dyno'
+import { listPulls } from '~~/server/services/workspace/pulls'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 export default defineEventHandler(async (event) => {
   const { params, benchTest } = await requireWorkspace(event, BenchTestParams)

@@ -1,4 +1,6 @@
 import type { PreviewPullsResponse } from '#shared/types/workspace'
+import { checkPreviewBody } from '~~/server/services/workspace/pull-pool'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 // Parses and checks; nothing is saved. The body goes to the check pool as received
 // (60 MB at most, server/utils/body-limit.ts): parsing 60 MB of JSON and validating

@@ -1,4 +1,6 @@
 import { ConfirmQuery } from '#shared/types/workspace'
+import { requireWorkspace, SetupParams } from '~~/server/services/workspace/route'
+import { deleteSetup } from '~~/server/services/workspace/setups'
 
 export default defineEventHandler(async (event) => {
   const { params } = await requireWorkspace(event, SetupParams)

@@ -1,4 +1,6 @@
 import { z } from 'zod'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
+import { listSetups } from '~~/server/services/workspace/setups'
 
 const Query = z.object({ deleted: z.enum(['only']).optional() })
 

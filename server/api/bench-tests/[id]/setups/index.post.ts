@@ -1,4 +1,6 @@
 import { CreateSetupBody } from '#shared/types/workspace'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
+import { createSetup } from '~~/server/services/workspace/setups'
 
 export default defineEventHandler(async (event) => {
   const { params } = await requireWorkspace(event, BenchTestParams)

@@ -1,4 +1,6 @@
 import { SetupOrderBody } from '#shared/types/workspace'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
+import { reorderSetups } from '~~/server/services/workspace/setups'
 
 export default defineEventHandler(async (event) => {
   const { params } = await requireWorkspace(event, BenchTestParams)

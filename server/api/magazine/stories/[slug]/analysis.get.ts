@@ -1,3 +1,5 @@
+import { MagazineSlugParams } from '~~/server/services/magazine/lists'
+import { findReaderStory, readerAnalysis, ReaderAnalysisQuery, readerCacheHeaders } from '~~/server/services/magazine/story'
 // The story's curves and results with the reader's correction standard and units.
 export default defineEventHandler(async (event) => {
   const { slug } = await getValidatedRouterParams(event, zodParser(MagazineSlugParams))

@@ -1,8 +1,9 @@
 // The story's social card (Open Graph and Twitter image): 1200 x 630 PNG, kept per edition.
 import { z } from 'zod'
 import { socialCardVersion } from '#shared/figures/social-card'
-import { socialCard } from '~~/server/utils/figure-export/social-card'
-import { readerFigureStory } from '~~/server/utils/figure-export/story-source'
+import { socialCard } from '~~/server/services/figures/social-card'
+import { readerFigureStory } from '~~/server/services/figures/story-source'
+import { MagazineSlugParams } from '~~/server/services/magazine/lists'
 
 const CardQuery = z.object({ v: z.string().max(80).optional() })
 

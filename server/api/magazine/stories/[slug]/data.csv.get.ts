@@ -1,3 +1,7 @@
+import { MagazineSlugParams } from '~~/server/services/magazine/lists'
+import { findReaderStory, readerAnalysis, ReaderAnalysisQuery, readerCacheHeaders } from '~~/server/services/magazine/story'
+import { storyDataCsv } from '~~/server/services/workspace/analysis-csv'
+import { sendCsvFile } from '~~/server/services/workspace/route'
 // "Download the data": from the edition readers see, everything needed to redo the
 // analysis (pulls and weather, averaged and corrected curves, the results table).
 export default defineEventHandler(async (event) => {

@@ -1,3 +1,5 @@
+import { MagazineSlugParams } from '~~/server/services/magazine/lists'
+import { findReaderStory, ReaderAnalysisQuery, readerCacheHeaders, readerFigures } from '~~/server/services/magazine/story'
 // The story's figures in the reader's correction standard and units: every graph and
 // table of the page is drawn from these (the prose keeps the edition's own figures).
 export default defineEventHandler(async (event) => {

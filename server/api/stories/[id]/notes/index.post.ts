@@ -1,4 +1,6 @@
 import { CreateNoteBody, type StoryNote } from '#shared/types/stories'
+import { addNote } from '~~/server/services/stories/notes'
+import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<{ note: StoryNote }> => {
   const { user, params } = await requireStoryRoute(event)

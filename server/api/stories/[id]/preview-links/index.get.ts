@@ -1,4 +1,6 @@
 import type { PreviewLink } from '#shared/types/stories'
+import { listPreviewLinks } from '~~/server/services/stories/preview'
+import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<{ links: PreviewLink[] }> => {
   const { user, params } = await requireStoryRoute(event)

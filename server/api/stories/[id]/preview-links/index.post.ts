@@ -1,4 +1,6 @@
 import { CreatePreviewLinkBody, type CreatedPreviewLink } from '#shared/types/stories'
+import { createPreviewLink } from '~~/server/services/stories/preview'
+import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<CreatedPreviewLink> => {
   const { user, params } = await requireStoryRoute(event)

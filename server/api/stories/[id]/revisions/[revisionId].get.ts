@@ -1,4 +1,6 @@
 import type { StoryRevision } from '#shared/types/stories'
+import { getRevision } from '~~/server/services/stories/revisions'
+import { requireStoryRoute, StoryRevisionParams } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<{ revision: StoryRevision }> => {
   const { user, params } = await requireStoryRoute(event, StoryRevisionParams)

@@ -1,4 +1,6 @@
 import type { RevisionListResponse } from '#shared/types/stories'
+import { listRevisions } from '~~/server/services/stories/revisions'
+import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<RevisionListResponse> => {
   const { user, params } = await requireStoryRoute(event)

@@ -1,4 +1,6 @@
 import { IdSchema, InboxPreviewBody } from '#shared/types/workspace'
+import { previewInboxFile } from '~~/server/services/workspace/inbox'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 const Params = BenchTestParams.extend({ fileId: IdSchema })
 

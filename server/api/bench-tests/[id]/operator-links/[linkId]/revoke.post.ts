@@ -1,4 +1,6 @@
 import { IdSchema } from '#shared/types/workspace'
+import { revokeOperatorLink } from '~~/server/services/workspace/operator-links'
+import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 
 const Params = BenchTestParams.extend({ linkId: IdSchema })
 

@@ -1,4 +1,7 @@
 import { z } from 'zod'
+import { parseStoredVariants } from '~~/server/services/photos/photos'
+import { streamPhotoObject } from '~~/server/services/photos/storage'
+import { previewPhoto, previewTokenParam } from '~~/server/services/stories/preview'
 
 const Params = z.object({ photoId: z.coerce.number().int().positive(), width: z.coerce.number().int().positive() })
 

@@ -1,7 +1,8 @@
 // One figure of a story for the print edition: SVG or PDF at one, two or three columns; the results table as PDF or CSV.
-import { PrintExportQuery, PrintFigureParams, storyPrintFile } from '~~/server/utils/figure-export/print-exports'
-import { deskFigureStory } from '~~/server/utils/figure-export/story-source'
-import { sendDownload } from '~~/server/utils/figure-export/download'
+import { PrintExportQuery, PrintFigureParams, storyPrintFile } from '~~/server/services/figures/print-exports'
+import { deskFigureStory } from '~~/server/services/figures/story-source'
+import { sendDownload } from '~~/server/services/figures/download'
+import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event) => {
   const { user, params } = await requireStoryRoute(event, PrintFigureParams)

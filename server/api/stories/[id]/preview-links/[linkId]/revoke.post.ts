@@ -1,4 +1,6 @@
 import type { PreviewLink } from '#shared/types/stories'
+import { revokePreviewLink } from '~~/server/services/stories/preview'
+import { requireStoryRoute, StoryLinkParams } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<{ link: PreviewLink }> => {
   const { user, params } = await requireStoryRoute(event, StoryLinkParams)

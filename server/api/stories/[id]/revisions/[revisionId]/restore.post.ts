@@ -1,4 +1,6 @@
 import { RestoreRevisionBody, type StoryResponse } from '#shared/types/stories'
+import { restoreRevision } from '~~/server/services/stories/revisions'
+import { requireStoryRoute, StoryRevisionParams } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const { user, params } = await requireStoryRoute(event, StoryRevisionParams)

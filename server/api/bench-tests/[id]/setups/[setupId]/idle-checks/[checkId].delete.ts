@@ -1,4 +1,6 @@
 import { IdSchema } from '#shared/types/workspace'
+import { requireWorkspace, SetupParams } from '~~/server/services/workspace/route'
+import { deleteIdleCheck } from '~~/server/services/workspace/setups'
 
 const Params = SetupParams.extend({ checkId: IdSchema })
 

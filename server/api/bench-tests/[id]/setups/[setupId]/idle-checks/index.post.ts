@@ -1,4 +1,6 @@
 import { IdleCheckBody } from '#shared/types/workspace'
+import { requireWorkspace, SetupParams } from '~~/server/services/workspace/route'
+import { addIdleCheck } from '~~/server/services/workspace/setups'
 
 export default defineEventHandler(async (event) => {
   const { user, params } = await requireWorkspace(event, SetupParams)
