@@ -1,4 +1,5 @@
-import { rolesAtLeast, type Role } from '#shared/types/roles'
+import type { Role } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import type { CurrentUser } from '#shared/types/users'
 
 export interface MeResponse { user: CurrentUser | null }

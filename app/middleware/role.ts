@@ -1,4 +1,4 @@
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { loadCurrentUser } from '~/composables/useCurrentUser'
 
 // Shapes navigation only: every API route checks the role again on the server.

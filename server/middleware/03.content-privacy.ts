@@ -1,5 +1,5 @@
 import { STAFF_COLLECTIONS } from '#shared/types/content'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 
 // The content module serves every collection under /__nuxt_content/<collection>/
 // (its SQL dump for the browser's own database, and a query route). Collections for

@@ -2,7 +2,8 @@
 // the headline, the key gain in large type and the story's main graph. Pure: it
 // writes the SVG, given a way to measure text in the card's face; the server
 // outlines the text and renders it to PNG (resvg).
-import { inlineFigureValue, type FigureSource } from '../types/story-figures'
+import type { FigureSource } from '../types/story-figures'
+import { inlineFigureValue } from '../stories/figure-values'
 
 export const SOCIAL_CARD = { width: 1200, height: 630 } as const
 /** Bump when the card's look changes: every cached card is then drawn again. */

@@ -29,7 +29,3 @@ export const PART_TYPES = [
 ] as const
 export type PartType = typeof PART_TYPES[number]['id']
 export const PART_TYPE_IDS = PART_TYPES.map(p => p.id) as [PartType, ...PartType[]]
-
-export function labelOf(list: readonly { id: string, label: string }[], id: string): string {
-  return list.find(item => item.id === id)?.label ?? id
-}

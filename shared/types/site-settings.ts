@@ -1,16 +1,6 @@
 import { z } from 'zod'
 import { DEFAULT_TIME_ZONE } from '../utils/time-text'
-
-/** True when the runtime's Intl knows the zone (IANA names such as "America/Chicago", or "UTC"). */
-export function isKnownTimeZone(zone: string): boolean {
-  try {
-    new Intl.DateTimeFormat('en-US', { timeZone: zone })
-    return true
-  }
-  catch {
-    return false
-  }
-}
+import { isKnownTimeZone } from '../settings/time-zone'
 
 export const TimeZoneSchema = z.string().trim().min(1, 'Enter a time zone').max(64)
   .refine(isKnownTimeZone, 'Use a time zone name such as America/Chicago or Europe/Berlin')

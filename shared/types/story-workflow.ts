@@ -1,5 +1,5 @@
-// The one table of story states and the actions that move a story between them,
-// read by the server (which enforces it), the interface (which only offers what
+// The one table of story states and the actions that move a story between them
+// (what it means for a role and a state: shared/stories/workflow.ts), read by the server (which enforces it), the interface (which only offers what
 // it allows) and the tests (which are generated from it). Brief: "Story states".
 import { z } from 'zod'
 import type { Role } from './roles'
@@ -16,10 +16,6 @@ export const STORY_STATES = [
 export type StoryState = typeof STORY_STATES[number]['id']
 export const STORY_STATE_IDS = STORY_STATES.map(s => s.id) as [StoryState, ...StoryState[]]
 export const StoryStateSchema = z.enum(STORY_STATE_IDS)
-
-export function storyStateLabel(state: StoryState): string {
-  return STORY_STATES.find(s => s.id === state)?.label ?? state
-}
 
 /** Checks a transition makes before it runs; a failed one is 422 with `data.guard`. */
 export const STORY_GUARDS = [
@@ -57,7 +53,8 @@ export interface StoryTransitionRule {
   mailSubject: string
 }
 
-const EDITORS: readonly Role[] = ['editor', 'admin']
+/** Roles that move stories past review and may always change the text. */
+export const EDITOR_ROLES: readonly Role[] = ['editor', 'admin']
 
 export const STORY_ACTIONS = ['submit', 'request_changes', 'approve', 'schedule', 'unschedule', 'publish_now', 'withdraw', 'reopen', 'publish_correction'] as const
 export type StoryAction = typeof STORY_ACTIONS[number]
@@ -65,17 +62,17 @@ export const StoryActionSchema = z.enum(STORY_ACTIONS)
 
 /** Brief: a writer moves own drafts to review; only editors move stories past review. */
 export const STORY_TRANSITIONS: readonly StoryTransitionRule[] = [
-  { action: 'submit', label: 'Send to the desk', from: ['draft', 'changes_requested'], to: 'in_review', roles: EDITORS, ownStoryRoles: ['writer'], guards: ['has-content', 'figures-valid', 'photos-alt-text'], note: 'optional', mailTo: 'editors', mailSubject: 'Story sent for review' },
-  { action: 'request_changes', label: 'Ask for changes', from: ['in_review', 'approved'], to: 'changes_requested', roles: EDITORS, ownStoryRoles: [], guards: [], note: 'required', mailTo: 'writers', mailSubject: 'Changes asked for' },
-  { action: 'approve', label: 'Approve', from: ['in_review'], to: 'approved', roles: EDITORS, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text', 'number-check-seen'], note: 'optional', mailTo: 'writers', mailSubject: 'Story approved' },
-  { action: 'schedule', label: 'Schedule', from: ['approved'], to: 'scheduled', roles: EDITORS, ownStoryRoles: [], guards: ['scheduled-time-future'], note: 'optional', mailTo: 'writers', mailSubject: 'Story scheduled' },
-  { action: 'unschedule', label: 'Take off the schedule', from: ['scheduled'], to: 'approved', roles: EDITORS, ownStoryRoles: [], guards: [], note: 'optional', mailTo: 'writers', mailSubject: 'Story taken off the schedule' },
-  { action: 'publish_now', label: 'Publish now', from: ['approved', 'scheduled'], to: 'published', roles: EDITORS, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text'], note: 'optional', mailTo: 'writers', mailSubject: 'Story published' },
-  { action: 'withdraw', label: 'Withdraw', from: ['published'], to: 'withdrawn', roles: EDITORS, ownStoryRoles: [], guards: [], note: 'required', mailTo: 'writers', mailSubject: 'Story withdrawn' },
+  { action: 'submit', label: 'Send to the desk', from: ['draft', 'changes_requested'], to: 'in_review', roles: EDITOR_ROLES, ownStoryRoles: ['writer'], guards: ['has-content', 'figures-valid', 'photos-alt-text'], note: 'optional', mailTo: 'editors', mailSubject: 'Story sent for review' },
+  { action: 'request_changes', label: 'Ask for changes', from: ['in_review', 'approved'], to: 'changes_requested', roles: EDITOR_ROLES, ownStoryRoles: [], guards: [], note: 'required', mailTo: 'writers', mailSubject: 'Changes asked for' },
+  { action: 'approve', label: 'Approve', from: ['in_review'], to: 'approved', roles: EDITOR_ROLES, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text', 'number-check-seen'], note: 'optional', mailTo: 'writers', mailSubject: 'Story approved' },
+  { action: 'schedule', label: 'Schedule', from: ['approved'], to: 'scheduled', roles: EDITOR_ROLES, ownStoryRoles: [], guards: ['scheduled-time-future'], note: 'optional', mailTo: 'writers', mailSubject: 'Story scheduled' },
+  { action: 'unschedule', label: 'Take off the schedule', from: ['scheduled'], to: 'approved', roles: EDITOR_ROLES, ownStoryRoles: [], guards: [], note: 'optional', mailTo: 'writers', mailSubject: 'Story taken off the schedule' },
+  { action: 'publish_now', label: 'Publish now', from: ['approved', 'scheduled'], to: 'published', roles: EDITOR_ROLES, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text'], note: 'optional', mailTo: 'writers', mailSubject: 'Story published' },
+  { action: 'withdraw', label: 'Withdraw', from: ['published'], to: 'withdrawn', roles: EDITOR_ROLES, ownStoryRoles: [], guards: [], note: 'required', mailTo: 'writers', mailSubject: 'Story withdrawn' },
   // A published story's text or data changed: the editor approves the new edition and
   // it replaces the one readers see at once, with a dated note of what changed.
-  { action: 'publish_correction', label: 'Publish a correction', from: ['published'], to: 'published', roles: EDITORS, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text', 'number-check-seen'], note: 'required', mailTo: 'writers', mailSubject: 'Correction published' },
-  { action: 'reopen', label: 'Back to draft', from: ['withdrawn'], to: 'draft', roles: EDITORS, ownStoryRoles: [], guards: [], note: 'optional', mailTo: 'writers', mailSubject: 'Story back to draft' },
+  { action: 'publish_correction', label: 'Publish a correction', from: ['published'], to: 'published', roles: EDITOR_ROLES, ownStoryRoles: [], guards: ['has-content', 'figures-valid', 'photos-alt-text', 'number-check-seen'], note: 'required', mailTo: 'writers', mailSubject: 'Correction published' },
+  { action: 'reopen', label: 'Back to draft', from: ['withdrawn'], to: 'draft', roles: EDITOR_ROLES, ownStoryRoles: [], guards: [], note: 'optional', mailTo: 'writers', mailSubject: 'Story back to draft' },
 ]
 
 /**
@@ -84,41 +81,4 @@ export const STORY_TRANSITIONS: readonly StoryTransitionRule[] = [
  */
 export const SCHEDULED_PUBLISH = { from: 'scheduled', to: 'published', mailTo: 'writers', mailSubject: 'Story published' } as const satisfies { from: StoryState, to: StoryState, mailTo: StoryMailTo, mailSubject: string }
 
-export function transitionFor(action: StoryAction): StoryTransitionRule {
-  const rule = STORY_TRANSITIONS.find(t => t.action === action)
-  if (!rule) throw new RangeError(`unknown story action ${action}`)
-  return rule
-}
-
-/** Whether this role may ever run the action (on the right story), whatever the state. */
-export function roleMayRun(rule: StoryTransitionRule, role: Role, isOwnStory: boolean): boolean {
-  return rule.roles.includes(role) || (isOwnStory && rule.ownStoryRoles.includes(role))
-}
-
-/** Actions this user may run on a story in this state (guards not yet checked). */
-export function allowedActions(state: StoryState, role: Role, isOwnStory: boolean): StoryAction[] {
-  return STORY_TRANSITIONS.filter(t => t.from.includes(state) && roleMayRun(t, role, isOwnStory)).map(t => t.action)
-}
-
 export type TransitionRefusal = { ok: true, rule: StoryTransitionRule } | { ok: false, status: 403 | 409, message: string }
-
-/** The server's decision before guards: 403 for a role that may never run it, 409 for the wrong state. */
-export function decideTransition(action: StoryAction, state: StoryState, role: Role, isOwnStory: boolean): TransitionRefusal {
-  const rule = transitionFor(action)
-  if (!roleMayRun(rule, role, isOwnStory)) return { ok: false, status: 403, message: `Your role may not ${rule.label.toLowerCase()} this story.` }
-  if (!rule.from.includes(state)) return { ok: false, status: 409, message: `A story that is ${storyStateLabel(state).toLowerCase()} cannot be moved by "${rule.label}".` }
-  return { ok: true, rule }
-}
-
-/** States in which the text may be changed: writers their own drafts, editors always. */
-const WRITER_EDITABLE: readonly StoryState[] = ['draft', 'changes_requested']
-
-export function mayEditContent(state: StoryState, role: Role, isOwnStory: boolean): boolean {
-  if (EDITORS.includes(role)) return true
-  return role === 'writer' && isOwnStory && WRITER_EDITABLE.includes(state)
-}
-
-/** States from which a preview link may be made or used: everything before going live. */
-export function previewAllowed(state: StoryState): boolean {
-  return state !== 'published'
-}

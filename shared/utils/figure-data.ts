@@ -5,7 +5,8 @@
 // server's SVG render, the live graph and the tables all read the same numbers.
 import { scaleCurve } from '../dyno/unit-scale'
 import type { AnalysisGains, AnalysisResponse, CurvePoint } from '../types/workspace'
-import { formatFigureNumber, type FigureComparison } from '../types/story-figures'
+import type { FigureComparison } from '../types/story-figures'
+import { formatFigureNumber } from '../stories/figure-values'
 import { curveValueAt, type ChartCurve, type ChartUnits } from './chart-options'
 
 export const FIGURE_UNIT_CHOICES = [

@@ -2,10 +2,8 @@
 // the data speaks to (hp, lb-ft, rpm, inHg, %) against the figures the bench test's
 // data gives, after reporting rounding. It informs; it never blocks.
 import { reportFixed, reportRound } from '../dyno/round'
-import {
-  INLINE_FIGURES, inlineFigureMeta, withUnit,
-  type FigureComparison, type FigureSource, type FigureUnit, type InlineFigureKey,
-} from '../types/story-figures'
+import { INLINE_FIGURES, type FigureComparison, type FigureSource, type FigureUnit, type InlineFigureKey } from '../types/story-figures'
+import { inlineFigureMeta, withUnit } from '../stories/figure-values'
 import type { FigureCandidate, NumberFinding } from '../types/stories'
 import type { AnalysisGains, AnalysisRow, Weather } from '../types/workspace'
 import { parseFigure } from './story-body'

@@ -1,7 +1,7 @@
 // Notes, preview links, figures and the number check over HTTP.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { reportRound } from '#shared/dyno'
-import { inlineFigureValue } from '#shared/types/story-figures'
+import { inlineFigureValue } from '#shared/stories/figure-values'
 import { agrees, figureCandidates } from '#shared/utils/number-check'
 import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'

@@ -4,7 +4,8 @@
 // public answer; a data change is shown to the desk with the figures it moves, and a
 // correction publishes a new edition with a dated note readers see.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { INLINE_FIGURES, inlineFigureValue } from '#shared/types/story-figures'
+import { INLINE_FIGURES } from '#shared/types/story-figures'
+import { inlineFigureValue } from '#shared/stories/figure-values'
 import { gainCurves, graphSetups, overlayCurves, resultsTableRows } from '#shared/utils/figure-data'
 import { figureSourceOf } from '#shared/utils/story-figure-use'
 import { Client, signedIn } from '../support/http'

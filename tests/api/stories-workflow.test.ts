@@ -2,7 +2,8 @@
 // from shared/types/story-workflow.ts; allowed moves succeed with an audit row, a
 // state revision and mail rows; all others are refused (403 role, 409 state).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { STORY_STATE_IDS, STORY_TRANSITIONS, decideTransition, type StoryAction, type StoryState } from '#shared/types/story-workflow'
+import { STORY_STATE_IDS, STORY_TRANSITIONS, type StoryAction, type StoryState } from '#shared/types/story-workflow'
+import { decideTransition } from '#shared/stories/workflow'
 import type { Role } from '#shared/types/roles'
 import { signedIn, type Client } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'

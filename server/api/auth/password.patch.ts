@@ -1,5 +1,5 @@
 import { PasswordChangeBody } from '#shared/types/users'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { assertLoginAllowed, clientIp, recordLoginFailure } from '~~/server/services/accounts/login-limit'
 import { setPassword, verifyUserPassword } from '~~/server/services/accounts/users'
 

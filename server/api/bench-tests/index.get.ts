@@ -1,4 +1,4 @@
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { BenchTestListQuery } from '#shared/types/workspace'
 import { listBenchTests } from '~~/server/services/workspace/bench-tests'
 

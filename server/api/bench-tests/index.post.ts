@@ -1,4 +1,4 @@
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { CreateBenchTestBody } from '#shared/types/workspace'
 import { createBenchTest } from '~~/server/services/workspace/bench-test-core'
 

@@ -1,5 +1,5 @@
 import { DeskQueueQuery, type DeskQueueResponse } from '#shared/types/stories'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { deskQueue } from '~~/server/services/stories/lists'
 
 export default defineEventHandler(async (event): Promise<DeskQueueResponse> => {

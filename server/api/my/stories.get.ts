@@ -1,5 +1,5 @@
 import { MyStoriesQuery, type MyStoriesResponse } from '#shared/types/stories'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { myStories } from '~~/server/services/stories/lists'
 
 export default defineEventHandler(async (event): Promise<MyStoriesResponse> => {

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { UpdatePhotoBody } from '#shared/types/photos'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { updatePhotoMeta } from '~~/server/services/photos/photos'
 
 const Params = z.object({ id: z.coerce.number().int().positive() })

@@ -1,4 +1,4 @@
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { readerPreferences } from '~~/server/services/magazine/preferences'
 
 export default defineEventHandler(async (event) => {

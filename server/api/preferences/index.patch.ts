@@ -1,4 +1,4 @@
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { ReaderPreferencesBody } from '#shared/types/magazine'
 import { saveReaderPreferences } from '~~/server/services/magazine/preferences'
 

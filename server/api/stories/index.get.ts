@@ -1,5 +1,5 @@
 import { StoryListQuery, type StoryListResponse } from '#shared/types/stories'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { listStories } from '~~/server/services/stories/lists'
 
 export default defineEventHandler(async (event): Promise<StoryListResponse> => {

@@ -1,5 +1,5 @@
 import { CreateStoryBody, type StoryResponse } from '#shared/types/stories'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { createStoryDraft } from '~~/server/services/stories/save'
 
 export default defineEventHandler(async (event): Promise<StoryResponse> => {

@@ -3,7 +3,8 @@
 // and its mail commit together and a mail server that is down blocks nothing.
 import type { Knex } from 'knex'
 import { STORY_PATHS } from '#shared/types/stories'
-import { storyStateLabel, type StoryMailTo, type StoryState } from '#shared/types/story-workflow'
+import type { StoryMailTo, StoryState } from '#shared/types/story-workflow'
+import { storyStateLabel } from '#shared/stories/workflow'
 import { formatTime } from '#shared/utils/time-text'
 import { getSiteSettings } from '../magazine/settings'
 

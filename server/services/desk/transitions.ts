@@ -3,10 +3,8 @@
 // one transaction: the row, the audit, a revision, the mail and any job.
 import type { Knex } from 'knex'
 import type { GuardRefusalData, Story, StoryTransition, TransitionInput, WrongStateData } from '#shared/types/stories'
-import {
-  allowedActions, decideTransition, storyStateLabel, STORY_GUARDS,
-  type StoryAction, type StoryGuard, type StoryState, type StoryTransitionRule,
-} from '#shared/types/story-workflow'
+import { STORY_GUARDS, type StoryAction, type StoryGuard, type StoryState, type StoryTransitionRule } from '#shared/types/story-workflow'
+import { allowedActions, decideTransition, storyStateLabel } from '#shared/stories/workflow'
 import type { CurrentUser } from '#shared/types/users'
 import { figureProblems } from '#shared/utils/story-body'
 import { mailStateChange } from './mail'

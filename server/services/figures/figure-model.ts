@@ -1,7 +1,8 @@
 // A story's standalone figure, worked out from its figures the way the page draws
 // it (FigureGraph's server picture, FigureResultsTable's rows), for drawing outside
 // the page: print exports, the social card.
-import { GainGraphProps, PullGraphProps, ResultsTableProps, formatFigureNumber, type FigureOptionsResult, type GainGraphOptions } from '#shared/types/story-figures'
+import { GainGraphProps, PullGraphProps, ResultsTableProps, type FigureOptionsResult, type GainGraphOptions } from '#shared/types/story-figures'
+import { formatFigureNumber } from '#shared/stories/figure-values'
 import type { StoryFigures } from '#shared/types/stories'
 import type { PullChartOption } from '#shared/utils/chart-options'
 import { graphChartOptions } from '#shared/utils/figure-charts'

@@ -3,7 +3,8 @@
 // the desk's, and the desk reads it through /api/stories).
 import type { Knex } from 'knex'
 import { z } from 'zod'
-import { ENGINE_FAMILIES, PART_TYPES, labelOf, type EngineFamily, type PartType } from '#shared/types/catalog'
+import { ENGINE_FAMILIES, PART_TYPES, type EngineFamily, type PartType } from '#shared/types/catalog'
+import { labelOf } from '#shared/catalog/labels'
 import { EngineFamilySchema, PartTypeSchema } from '#shared/types/catalog-schemas'
 import { TagSchema, type StoryPhoto } from '#shared/types/stories'
 import type { MagazineHome, MagazinePage, MagazineStoryCard } from '#shared/types/magazine'

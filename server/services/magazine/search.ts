@@ -5,7 +5,8 @@
 // again, whoever wrote it (the editor, the publish job, the demo seed, a test). A story that is no longer
 // published keeps its rows; the query only ever joins published stories.
 import type { Knex } from 'knex'
-import { ENGINE_FAMILIES, PART_TYPES, labelOf } from '#shared/types/catalog'
+import { ENGINE_FAMILIES, PART_TYPES } from '#shared/types/catalog'
+import { labelOf } from '#shared/catalog/labels'
 import { queryTokens, storySearchTerms } from './search-terms'
 import { proseLines } from '#shared/utils/story-markup'
 import { publicStories, publishedTextColumns } from './published'

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import type { CurrentUser } from '#shared/types/users'
 import { photoInPublishedStory } from '../stories/photos'
 import { visibleBenchTests } from '../workspace/bench-test-access'

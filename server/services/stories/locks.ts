@@ -4,7 +4,7 @@
 import type { Knex } from 'knex'
 import { LOCK_EXPIRES_SECONDS, type LockResponse, type StoryLock } from '#shared/types/stories'
 import type { CurrentUser } from '#shared/types/users'
-import { mayEditContent } from '#shared/types/story-workflow'
+import { mayEditContent } from '#shared/stories/workflow'
 import { requireStoryRow } from './stories'
 
 export interface LockRow { story_id: number, user_id: number, display_name: string, since: Date | string, heartbeat_at: Date | string, expires_at: Date | string }

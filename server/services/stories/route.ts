@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import { z, type ZodType } from 'zod'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import type { CurrentUser } from '#shared/types/users'
 
 const Id = z.coerce.number().int().positive()

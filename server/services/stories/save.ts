@@ -3,8 +3,8 @@
 // uses and its revision, or nothing at all.
 import type { Knex } from 'knex'
 import type { CreateStoryInput, RevisionKind, Story, UpdateStoryInput } from '#shared/types/stories'
-import { rolesAtLeast } from '#shared/types/roles'
-import { mayEditContent } from '#shared/types/story-workflow'
+import { rolesAtLeast } from '#shared/accounts/roles'
+import { mayEditContent } from '#shared/stories/workflow'
 import type { CurrentUser } from '#shared/types/users'
 import { syncStoryPhotos } from './photos'
 import { writeRevision } from './revisions'

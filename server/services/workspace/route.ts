@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import { z, type ZodType } from 'zod'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import type { CurrentUser } from '#shared/types/users'
 import { IdSchema } from '#shared/types/workspace'
 import type { BenchTestRecord } from './bench-test-access'

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { ROLES, rolesAtLeast, type Role } from '#shared/types/roles'
+import { ROLES, type Role } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { csrfReason, decideAccess } from '#shared/utils/access'
 
 // Source: the product brief's role table (each role may do all the ones before it may).

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { DEFAULT_SITE_SETTINGS, SiteSettingsPatchBody, SiteSettingsSchema, isKnownTimeZone } from '#shared/types/site-settings'
+import { DEFAULT_SITE_SETTINGS, SiteSettingsPatchBody, SiteSettingsSchema } from '#shared/types/site-settings'
+import { isKnownTimeZone } from '#shared/settings/time-zone'
 
 describe('site settings schema', () => {
   it('accepts the defaults', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatFigureNumber, inlineFigureValue } from '#shared/types/story-figures'
+import { formatFigureNumber, inlineFigureValue } from '#shared/stories/figure-values'
 import { BASE, CAM, HEADERS, source } from './figure-source'
 
 const value = (of: Parameters<typeof inlineFigureValue>[1]['of'], setup: number, extra: { vs?: number, decimals?: number } = {}) =>

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { ROLES } from '#shared/types/roles'
-import { STORY_STATE_IDS, STORY_TRANSITIONS, allowedActions, decideTransition, mayEditContent, transitionFor } from '#shared/types/story-workflow'
+import { STORY_STATE_IDS, STORY_TRANSITIONS } from '#shared/types/story-workflow'
+import { allowedActions, decideTransition, mayEditContent, transitionFor } from '#shared/stories/workflow'
 
 describe('the story workflow table', () => {
   it('follows the brief: draft -> in review -> approved -> scheduled -> published -> withdrawn', () => {

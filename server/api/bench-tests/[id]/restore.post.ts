@@ -1,4 +1,4 @@
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { restoreBenchTest } from '~~/server/services/workspace/bench-tests'
 import { BenchTestParams } from '~~/server/services/workspace/route'
 

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { retryPhoto } from '~~/server/services/photos/photos'
 
 const Params = z.object({ id: z.coerce.number().int().positive() })

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { rolesAtLeast } from '#shared/types/roles'
+import { rolesAtLeast } from '#shared/accounts/roles'
 import { storeUploadedPhoto } from '~~/server/services/photos/photos'
 import { readPhotoUpload } from '~~/server/services/photos/upload'
 import { requireBenchTest } from '~~/server/services/workspace/bench-test-access'
