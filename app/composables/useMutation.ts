@@ -1,3 +1,4 @@
+import type { ComponentPublicInstance } from 'vue'
 import type { z } from 'zod'
 import { apiMessage } from '~/utils/apiErrors'
 
@@ -54,14 +55,22 @@ export function useMutation(options: MutationOptions) {
  * beside their fields, focus on the first), then `useMutation` runs the request; the
  * server's field problems go beside their fields too.
  */
-export function useFormMutation(form: Ref<HTMLElement | null>, options: MutationOptions) {
+/** The form's element, whether the template's ref is on a plain <form> or on <FormShell>. */
+function formElement(form: Ref<HTMLElement | ComponentPublicInstance | null>): HTMLElement | null {
+  const value = form.value
+  return value && '$el' in value ? value.$el as HTMLElement : value
+}
+
+export function useFormMutation(options: MutationOptions) {
+  // The template binds it: <FormShell ref="form">, so focus can go to the first bad field.
+  const form = ref<HTMLElement | ComponentPublicInstance | null>(null)
   const fields = useFieldErrors()
   const mutation = useMutation({
     failure: options.failure,
     handle: async (err) => {
       const handled = (await options.handle?.(err)) || fields.fromApi(err)
       // A handler may have marked a field itself (a wrong current password).
-      if (handled) await fields.focusFirst(form.value)
+      if (handled) await fields.focusFirst(formElement(form))
       return handled
     },
   })
@@ -72,11 +81,11 @@ export function useFormMutation(form: Ref<HTMLElement | null>, options: Mutation
     if (body === undefined) {
       mutation.failure.value = ''
       mutation.notice.value = ''
-      await fields.focusFirst(form.value)
+      await fields.focusFirst(formElement(form))
       return undefined
     }
     return mutation.run(() => action(body))
   }
 
-  return { ...mutation, ...fields, submit }
+  return { ...mutation, ...fields, form, submit }
 }
