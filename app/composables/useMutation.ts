@@ -1,9 +1,13 @@
+import type { ComponentPublicInstance } from 'vue'
 import type { z } from 'zod'
 import { apiMessage } from '~/utils/apiErrors'
 
 export interface MutationOptions {
-  /** Said when the server gave no words of its own ("The setup could not be added. Try again."). */
-  failure: string
+  /**
+   * Said when the server gave no words of its own ("The setup could not be added. Try
+   * again."); a function words every failure itself (sign-in must not repeat the server).
+   */
+  failure: string | ((err: unknown) => string)
   /**
    * Takes an error before the failure line does (a stale version opening the conflict
    * dialog, field problems going beside their fields): true when it was handled.
@@ -16,12 +20,17 @@ export interface MutationOptions {
  * marks the action busy (buttons disable on it), and on failure says the server's own
  * words or the fallback; `notice` is for the success line the caller writes.
  */
+function describeFailure(err: unknown, failure: MutationOptions['failure']): string {
+  return typeof failure === 'function' ? failure(err) : apiMessage(err, failure)
+}
+
 export function useMutation(options: MutationOptions) {
   const busy = ref(false)
   const failure = ref('')
   const notice = ref('')
 
-  async function run<T>(action: () => Promise<T>): Promise<T | undefined> {
+  /** `call` words one action's failure differently (copy, not save) on the same line. */
+  async function run<T>(action: () => Promise<T>, call: Partial<MutationOptions> = {}): Promise<T | undefined> {
     failure.value = ''
     notice.value = ''
     busy.value = true
@@ -29,7 +38,8 @@ export function useMutation(options: MutationOptions) {
       return await action()
     }
     catch (err) {
-      if (!(await options.handle?.(err))) failure.value = apiMessage(err, options.failure)
+      const handle = call.handle ?? options.handle
+      if (!(await handle?.(err))) failure.value = describeFailure(err, call.failure ?? options.failure)
       return undefined
     }
     finally {
@@ -45,29 +55,37 @@ export function useMutation(options: MutationOptions) {
  * beside their fields, focus on the first), then `useMutation` runs the request; the
  * server's field problems go beside their fields too.
  */
-export function useFormMutation(form: Ref<HTMLElement | null>, options: MutationOptions) {
+/** The form's element, whether the template's ref is on a plain <form> or on <FormShell>. */
+function formElement(form: Ref<HTMLElement | ComponentPublicInstance | null>): HTMLElement | null {
+  const value = form.value
+  return value && '$el' in value ? value.$el as HTMLElement : value
+}
+
+export function useFormMutation(options: MutationOptions) {
+  // The template binds it: <FormShell ref="form">, so focus can go to the first bad field.
+  const form = ref<HTMLElement | ComponentPublicInstance | null>(null)
   const fields = useFieldErrors()
   const mutation = useMutation({
     failure: options.failure,
     handle: async (err) => {
-      if (await options.handle?.(err)) return true
-      if (!fields.fromApi(err)) return false
-      await fields.focusFirst(form.value)
-      return true
+      const handled = (await options.handle?.(err)) || fields.fromApi(err)
+      // A handler may have marked a field itself (a wrong current password).
+      if (handled) await fields.focusFirst(formElement(form))
+      return handled
     },
   })
 
   /** Runs `action` with the checked body, or marks the fields and does nothing. */
   async function submit<S extends z.ZodType, T>(schema: S, values: unknown, action: (body: z.output<S>) => Promise<T>): Promise<T | undefined> {
-    mutation.failure.value = ''
-    mutation.notice.value = ''
     const body = fields.check(schema, values)
     if (body === undefined) {
-      await fields.focusFirst(form.value)
+      mutation.failure.value = ''
+      mutation.notice.value = ''
+      await fields.focusFirst(formElement(form))
       return undefined
     }
     return mutation.run(() => action(body))
   }
 
-  return { ...mutation, ...fields, submit }
+  return { ...mutation, ...fields, form, submit }
 }

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO, createBenchTest, createSetup, expectOk, pullCsv, uploadFiles, withCoolant } from '../support/workspace'
-import { createStory, transition } from '../support/stories'
+import { createStory, publishStory } from '../support/stories'
 
 afterAll(closeTestDb)
 
@@ -25,10 +25,7 @@ async function send(name: string, seed: number, peakTorqueLbFt = 430) {
 }
 
 async function approveAndPublish(storyId: number) {
-  expectOk(await transition(editor, storyId, 'submit'))
-  expectOk(await editor.get(`/api/stories/${storyId}/number-check`))
-  expectOk(await transition(editor, storyId, 'approve'))
-  expectOk(await transition(editor, storyId, 'publish_now'))
+  await publishStory(editor, storyId)
 }
 
 const DAY_BODY = [

@@ -11,7 +11,7 @@ import { socialCardVersion } from '#shared/figures/social-card'
 import { BASE_URL, Client, signedIn } from '../support/http'
 import { csvRows } from '../support/csv'
 import { DEMO, expectOk, importFiles, pullFile } from '../support/workspace'
-import { CAM_MODEL, createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
+import { approveStory, CAM_MODEL, createStory, publishStory, storyBench, storyBody, type StoryBench } from '../support/stories'
 
 const dir = mkdtempSync(join(tmpdir(), 'pullsheet-exports-'))
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
@@ -27,10 +27,7 @@ let editor: Client
 const story = { id: 0, slug: '', updatedAt: '', draftId: 0, draftSlug: '' }
 
 async function publish(storyId: number) {
-  expectOk(await transition(editor, storyId, 'submit'))
-  expectOk(await editor.get(`/api/stories/${storyId}/number-check`))
-  expectOk(await transition(editor, storyId, 'approve'))
-  expectOk(await transition(editor, storyId, 'publish_now'))
+  await publishStory(editor, storyId)
 }
 
 /** Raw bytes (the test client reads text). */
@@ -216,9 +213,7 @@ describe('embeds', () => {
 describe('exports are drawn from the edition, not the workspace', () => {
   it('a pull added after approval and publication moves no desk export and no card; a story still being written follows the workspace', async () => {
     const approved = await createStory(editor, bench.benchTestId, { body: storyBody(bench, '\n::results-table\n::') })
-    expectOk(await transition(editor, approved.id, 'submit'))
-    expectOk(await editor.get(`/api/stories/${approved.id}/number-check`))
-    expectOk(await transition(editor, approved.id, 'approve'))
+    await approveStory(editor, approved.id)
     const table = async (id: number, number: number) => {
       const res = await fetchBytes(`/api/stories/${id}/figures/${number}/print?format=csv`, editor)
       expect(res.status).toBe(200)

@@ -1,7 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO_PASSWORD, signedIn } from '../support/http'
-import { DEMO, expectOk } from '../support/workspace'
-import { createStory, storyBench, storyBody, transition } from '../support/stories'
+import { DEMO } from '../support/workspace'
+import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
 
 describe('security headers', () => {
   it('pages carry a CSP without unsafe-inline scripts, nosniff, a referrer policy and no framing', async () => {
@@ -35,10 +35,7 @@ describe('cache headers of the reader\'s answers', () => {
     const editor = await signedIn(DEMO.editor)
     const bench = await storyBench(editor)
     const story = await createStory(editor, bench.benchTestId, { body: storyBody(bench) })
-    expectOk(await transition(editor, story.id, 'submit'))
-    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-    expectOk(await transition(editor, story.id, 'approve'))
-    expectOk(await transition(editor, story.id, 'publish_now'))
+    await publishStory(editor, story.id)
     slug = story.slug
     // Every app server polls the stories for changes every 2 s and drops its cache on
     // one: let that happen before the pairs of requests below.

@@ -8,7 +8,7 @@ import { reportFixed } from '#shared/dyno'
 import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO, expectOk } from '../support/workspace'
-import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
+import { createStory, publishStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
 import { csvRows } from '../support/csv'
 
 afterAll(closeTestDb)
@@ -22,10 +22,7 @@ const slugs = { published: '', draft: '', withdrawn: '' }
 const numbers = { id: 0, slug: '', unique: `qorvex${Math.random().toString(36).slice(2, 8)}`, ranked: `plimbo${Math.random().toString(36).slice(2, 8)}` }
 
 async function publish(storyId: number) {
-  expectOk(await transition(editor, storyId, 'submit'))
-  expectOk(await editor.get(`/api/stories/${storyId}/number-check`))
-  expectOk(await transition(editor, storyId, 'approve'))
-  expectOk(await transition(editor, storyId, 'publish_now'))
+  await publishStory(editor, storyId)
 }
 
 beforeAll(async () => {

@@ -4,8 +4,9 @@ import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
 import { closeTestDb, testDb } from '../support/db'
-import { Client, DEMO_PASSWORD, signedIn, spareAppPort } from '../support/http'
+import { Client, DEMO_PASSWORD, signedIn, spareAppPort, testServerExtra } from '../support/http'
 import { createBenchTest, makeJpeg, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+import { sleep, until } from '../support/wait'
 
 // Servers of their own, on a queue of their own (PHOTO_QUEUE), so the main test
 // server never takes these jobs; a short lease so a dead server's job comes back fast.
@@ -16,7 +17,7 @@ afterEach(async () => {
 afterAll(closeTestDb)
 
 async function server(port: number, settings: Record<string, string>): Promise<{ child: ChildProcess, client: Client }> {
-  const extra = JSON.parse(process.env.TEST_SERVER_EXTRA ?? '{}') as Record<string, string>
+  const extra = testServerExtra()
   const child = await startApp(localEnv('test'), { ...extra, PHOTO_JOB_LEASE_SECONDS: '2', PHOTO_POLL_MS: '200', PULLSHEET_TEST_HOOKS: '1', ...settings }, port)
   started.push(child)
   const client = new Client(`http://127.0.0.1:${port}`)
@@ -28,18 +29,6 @@ async function server(port: number, settings: Record<string, string>): Promise<{
 async function jobOf(kind: string, photoId: number) {
   return testDb()('jobs').where({ kind }).whereRaw('JSON_VALUE(payload, \'$.photoId\') = ?', [photoId]).first()
 }
-
-async function until<T>(what: string, probe: () => Promise<T | undefined | false>, timeoutMs = 30_000): Promise<T> {
-  const end = Date.now() + timeoutMs
-  while (Date.now() < end) {
-    const value = await probe()
-    if (value) return value
-    await new Promise(r => setTimeout(r, 200))
-  }
-  throw new Error(`${what} did not happen within ${timeoutMs} ms`)
-}
-
-const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
 
 describe('a crash mid-job', () => {
   it('a server killed while its worker sizes a photo: the lease runs out and another server finishes the job', async () => {

@@ -4,7 +4,7 @@ import { Client, signedIn } from '../support/http'
 import { closeTestDb } from '../support/db'
 import { DEMO, expectOk } from '../support/workspace'
 import { fetchImage, makeJpeg, uploadPhoto, waitForPhoto } from '../support/photos'
-import { createStory, storyBench, storyBody, transition } from '../support/stories'
+import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
 
 afterAll(closeTestDb)
 
@@ -23,10 +23,7 @@ describe('photos of published stories', () => {
     const anonymous = new Client()
     expect((await fetchImage(anonymous, `/photos/${ready.id}/480`)).status).toBe(404)
 
-    expectOk(await transition(editor, story.id, 'submit'))
-    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-    expectOk(await transition(editor, story.id, 'approve'))
-    expectOk(await transition(editor, story.id, 'publish_now'))
+    await publishStory(editor, story.id)
 
     const image = await fetchImage(anonymous, `/photos/${ready.id}/480`)
     expect(image.status).toBe(200)

@@ -13,7 +13,7 @@ import { closeTestDb, testDb } from '../support/db'
 import { buildDemoBenchTest } from '../../server/db/demo/bench-tests'
 import { DEMO_MAGAZINE_TESTS } from '../../server/db/demo/magazine-tests'
 import { DEMO, createSetup, expectOk, importFiles, pullFile } from '../support/workspace'
-import { CAM_MODEL, createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
+import { CAM_MODEL, createStory, publishStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
 
 afterAll(closeTestDb)
 
@@ -25,10 +25,7 @@ let setups: number[]
 let seed = 91_000
 
 async function approveAndPublish(storyId: number) {
-  expectOk(await transition(editor, storyId, 'submit'))
-  expectOk(await editor.get(`/api/stories/${storyId}/number-check`))
-  expectOk(await transition(editor, storyId, 'approve'))
-  expectOk(await transition(editor, storyId, 'publish_now'))
+  await publishStory(editor, storyId)
 }
 
 /** Every figure kind over every ordered pair of the three setups. */

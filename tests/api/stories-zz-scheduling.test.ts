@@ -5,10 +5,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
-import { Client, signedIn, spareAppPort } from '../support/http'
+import { Client, signedIn, spareAppPort, testServerExtra } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO, expectOk, newWriter } from '../support/workspace'
 import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
+import { sleep, until } from '../support/wait'
 
 const SECOND_PORT = spareAppPort(1)
 let second: ChildProcess | undefined
@@ -18,7 +19,7 @@ let editorB: Client
 let bench: StoryBench
 
 beforeAll(async () => {
-  const extra = JSON.parse(process.env.TEST_SERVER_EXTRA ?? '{}') as Record<string, string>
+  const extra = testServerExtra()
   second = await startApp(localEnv('test'), extra, SECOND_PORT)
   writer = await newWriter()
   editorA = await signedIn(DEMO.editor)
@@ -37,18 +38,6 @@ async function approvedStory(): Promise<{ id: number, headline: string }> {
   await testDb()('stories').where('id', story.id).update({ state: 'approved' })
   return story
 }
-
-async function until<T>(what: string, probe: () => Promise<T | undefined | false>, timeoutMs = 30_000): Promise<T> {
-  const end = Date.now() + timeoutMs
-  while (Date.now() < end) {
-    const value = await probe()
-    if (value) return value
-    await new Promise(r => setTimeout(r, 200))
-  }
-  throw new Error(`${what} did not happen within ${timeoutMs} ms`)
-}
-
-const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
 
 describe('scheduled publishing', () => {
   it('publishes each of several stories due at the same moment exactly once, with two servers racing', async () => {

@@ -5,7 +5,7 @@ import { brotliDecompressSync, gunzipSync } from 'node:zlib'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Client, signedIn } from '../support/http'
 import { DEMO, expectOk } from '../support/workspace'
-import { createStory, storyBench, storyBody, transition } from '../support/stories'
+import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
 
 let slug = ''
 
@@ -14,10 +14,7 @@ beforeAll(async () => {
   const bench = await storyBench(editor)
   const body = [storyBody(bench), '', `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`, '::', '', '::results-table', '::'].join('\n')
   const story = await createStory(editor, bench.benchTestId, { body })
-  expectOk(await transition(editor, story.id, 'submit'))
-  expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-  expectOk(await transition(editor, story.id, 'approve'))
-  expectOk(await transition(editor, story.id, 'publish_now'))
+  await publishStory(editor, story.id)
   slug = story.slug
 }, 120_000)
 

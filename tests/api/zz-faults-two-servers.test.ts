@@ -8,19 +8,18 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
-import { Client, signedIn, spareAppPort, uniqueEmail } from '../support/http'
+import { Client, signedIn, spareAppPort, uniqueEmail, testServerExtra } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { caughtMail } from '../support/mail'
-import { createStory, storyBench, storyBody, transition } from '../support/stories'
+import { createStory, publishStory, storyBench, storyBody, transition } from '../support/stories'
 import { DEMO, createBenchTest, createSetup, expectOk, importFiles, newWriter, pullFile } from '../support/workspace'
 
 const SECOND_PORT = spareAppPort(2)
 const SECOND = `http://127.0.0.1:${SECOND_PORT}`
-const extra = () => JSON.parse(process.env.TEST_SERVER_EXTRA ?? '{}') as Record<string, string>
 let second: ChildProcess | undefined
 
 beforeAll(async () => {
-  second = await startApp(localEnv('test'), extra(), SECOND_PORT)
+  second = await startApp(localEnv('test'), testServerExtra(), SECOND_PORT)
 }, 60_000)
 
 afterAll(async () => {
@@ -61,10 +60,7 @@ describe('two app servers', () => {
     const editor = await signedIn(DEMO.editor)
     const bench = await storyBench(editor)
     const story = await createStory(editor, bench.benchTestId, { body: storyBody(bench), deck: 'First deck, cached on both servers.' })
-    expectOk(await transition(editor, story.id, 'submit'))
-    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-    expectOk(await transition(editor, story.id, 'approve'))
-    expectOk(await transition(editor, story.id, 'publish_now'))
+    await publishStory(editor, story.id)
     const path = `/stories/${story.slug}`
     for (const base of [new Client().base, SECOND]) {
       expect(await pageHtml(base, path)).toContain('First deck, cached on both servers.')
@@ -84,7 +80,7 @@ describe('two app servers', () => {
 describe('an app server killed in the middle of an import', () => {
   it('leaves no partial batch, and the main server imports the same batch whole', async () => {
     const victimPort = spareAppPort(3)
-    const victim = await startApp(localEnv('test'), extra(), victimPort)
+    const victim = await startApp(localEnv('test'), testServerExtra(), victimPort)
     const { client, email } = await newWriter()
     const bt = await createBenchTest(client)
     const setup = await createSetup(client, bt.id, 'Baseline')

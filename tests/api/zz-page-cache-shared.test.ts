@@ -8,9 +8,9 @@ import { startApp } from '../../scripts/lib/app'
 import { localEnv, redisUrl } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
 import { startRedis } from '../../scripts/lib/redis'
-import { Client, DEMO_PASSWORD } from '../support/http'
+import { Client, DEMO_PASSWORD, testServerExtra } from '../support/http'
 import { closeTestDb } from '../support/db'
-import { createStory, storyBench, storyBody, transition } from '../support/stories'
+import { createStory, publishStory, storyBench, storyBody, transition } from '../support/stories'
 import { DEMO, expectOk } from '../support/workspace'
 
 const env = localEnv('test')
@@ -21,7 +21,7 @@ const started: ChildProcess[] = []
 beforeAll(async () => {
   const redis = await startRedis(env)
   if (redis) started.push(redis)
-  const extra = { ...JSON.parse(process.env.TEST_SERVER_EXTRA ?? '{}') as Record<string, string>, PAGE_CACHE: 'redis', REDIS_URL: redisUrl(env), PAGE_CACHE_POLL_MS: '600000' }
+  const extra = { ...testServerExtra(), PAGE_CACHE: 'redis', REDIS_URL: redisUrl(env), PAGE_CACHE_POLL_MS: '600000' }
   for (const port of ports) started.push(await startApp(env, extra, port))
 }, 90_000)
 
@@ -41,10 +41,7 @@ describe('two app servers sharing the page cache in Redis', () => {
     expectOk(await editor.post('/api/auth/login', { email: DEMO.editor, password: DEMO_PASSWORD }))
     const bench = await storyBench(editor)
     const story = await createStory(editor, bench.benchTestId, { body: storyBody(bench), deck: 'The deck both servers keep.' })
-    expectOk(await transition(editor, story.id, 'submit'))
-    expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-    expectOk(await transition(editor, story.id, 'approve'))
-    expectOk(await transition(editor, story.id, 'publish_now'))
+    await publishStory(editor, story.id)
     const path = `/stories/${story.slug}`
 
     const first = await page(bases[0]!, path)

@@ -9,8 +9,7 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { BASE_URL, signedIn } from '../support/http'
 import { openBrowser } from '../support/browser'
-import { expectOk } from '../support/workspace'
-import { createStory, storyBench, transition } from '../support/stories'
+import { createStory, publishStory, storyBench } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
 let slug = ''
@@ -31,10 +30,7 @@ beforeAll(async () => {
     '::',
   ].join('\n')
   const story = await createStory(editor, bench.benchTestId, { body, headline: 'A cam for the top end, framed elsewhere' })
-  expectOk(await transition(editor, story.id, 'submit'))
-  expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-  expectOk(await transition(editor, story.id, 'approve'))
-  expectOk(await transition(editor, story.id, 'publish_now'))
+  await publishStory(editor, story.id)
   slug = story.slug
 
   // "Another site": a different origin (another port) with a forum post that frames the figure.

@@ -7,8 +7,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import type { Locator } from 'playwright-core'
 import { gotoReady, openBrowser, signInThroughPage } from '../support/browser'
 import { DEMO_PASSWORD, signedIn } from '../support/http'
-import { expectOk } from '../support/workspace'
-import { createStory, storyBench, transition, type StoryBench } from '../support/stories'
+import { createStory, publishStory, storyBench, type StoryBench } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
 let bench: StoryBench
@@ -20,10 +19,7 @@ beforeAll(async () => {
   bench = await storyBench(editor)
   const body = `Two panels on a phone (invented data).\n\n::pull-graph{setups="${bench.baselineId},${bench.camId}" channel="both"}\n::\n`
   const story = await createStory(editor, bench.benchTestId, { body, deck: 'Graphs at phone width.' })
-  for (const action of ['submit', 'approve', 'publish_now']) {
-    if (action === 'approve') expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-    expectOk(await transition(editor, story.id, action))
-  }
+  await publishStory(editor, story.id)
   slug = story.slug
 }, 120_000)
 

@@ -6,8 +6,7 @@ import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { openBrowser, type BrowserSession } from '../support/browser'
 import { signedIn } from '../support/http'
-import { expectOk } from '../support/workspace'
-import { createStory, storyBench, storyBody, transition } from '../support/stories'
+import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
 let slug = ''
@@ -17,10 +16,7 @@ beforeAll(async () => {
   const editor = await signedIn('editor@example.com')
   const bench = await storyBench(editor)
   const story = await createStory(editor, bench.benchTestId, { body: storyBody(bench), deck: 'A story for the feed (invented data).' })
-  for (const action of ['submit', 'approve', 'publish_now']) {
-    if (action === 'approve') expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-    expectOk(await transition(editor, story.id, action))
-  }
+  await publishStory(editor, story.id)
   slug = story.slug
 }, 120_000)
 

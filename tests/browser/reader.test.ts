@@ -10,8 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { seriousViolations } from '../support/axe'
 import { openBrowser, type BrowserSession } from '../support/browser'
 import { signedIn } from '../support/http'
-import { expectOk } from '../support/workspace'
-import { createStory, storyBench, transition, type StoryBench } from '../support/stories'
+import { createStory, publishStory, storyBench, type StoryBench } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
 // A switch refetches the figures: on a loaded machine that can take more than the default second.
@@ -39,10 +38,7 @@ beforeAll(async () => {
     '::',
   ].join('\n')
   const story = await createStory(editor, bench.benchTestId, { body, deck: 'More duration, more top end.', headline: `Cam swap on the ${word} engine` })
-  expectOk(await transition(editor, story.id, 'submit'))
-  expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-  expectOk(await transition(editor, story.id, 'approve'))
-  expectOk(await transition(editor, story.id, 'publish_now'))
+  await publishStory(editor, story.id)
   slug = story.slug
 }, 120_000)
 

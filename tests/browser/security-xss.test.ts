@@ -8,7 +8,7 @@ import { openBrowser, signInThroughPage, type BrowserSession } from '../support/
 import { DEMO_PASSWORD, signedIn, uniqueEmail } from '../support/http'
 import { closeTestDb } from '../support/db'
 import { makeJpeg, uploadPhoto, waitForPhoto } from '../support/photos'
-import { storyBench, transition } from '../support/stories'
+import { publishStory, storyBench } from '../support/stories'
 import { DEMO, createBenchTest, createSetup, expectOk, importFiles, pullFile } from '../support/workspace'
 
 afterAll(closeTestDb)
@@ -104,10 +104,7 @@ async function arrange(): Promise<Arranged> {
   const withHero = expectOk(await editor.patch(`/api/stories/${story.id}`, { version: story.version, heroPhotoId: heroPhoto.id })).story
   expect(withHero.heroPhotoId).toBe(heroPhoto.id)
   expectOk(await editor.post(`/api/stories/${story.id}/notes`, { body: everything.slice(0, 1900) }), 201)
-  expectOk(await transition(editor, story.id, 'submit'))
-  expectOk(await editor.get(`/api/stories/${story.id}/number-check`))
-  expectOk(await transition(editor, story.id, 'approve'))
-  expectOk(await transition(editor, story.id, 'publish_now'))
+  await publishStory(editor, story.id)
 
   return { slug: story.slug, benchTestId: bt.id, storyIds, draftId: storyIds[0]! }
 }

@@ -8,6 +8,11 @@ export function spareAppPort(offset: number): number {
   return Number(new URL(BASE_URL).port) + offset
 }
 
+/** The settings `npm test` gives its app server, for the extra ones a test starts. */
+export function testServerExtra(): Record<string, string> {
+  return JSON.parse(process.env.TEST_SERVER_EXTRA ?? '{}') as Record<string, string>
+}
+
 export interface Reply<T = any> { status: number, body: T, headers: Headers }
 
 export class Client {

@@ -44,3 +44,16 @@ export async function transition(client: Client, storyId: number, action: string
   const story = expectOk(await client.get(`/api/stories/${storyId}`)).story
   return client.post(`/api/stories/${storyId}/transitions`, { action, version: story.version, ...extra })
 }
+
+/** Submit, run the number check (approval needs it seen for this version), approve. */
+export async function approveStory(editor: Client, storyId: number) {
+  expectOk(await transition(editor, storyId, 'submit'))
+  expectOk(await editor.get(`/api/stories/${storyId}/number-check`))
+  expectOk(await transition(editor, storyId, 'approve'))
+}
+
+/** The whole desk path to readers: submit, number check, approve, publish now. */
+export async function publishStory(editor: Client, storyId: number) {
+  await approveStory(editor, storyId)
+  expectOk(await transition(editor, storyId, 'publish_now'))
+}
