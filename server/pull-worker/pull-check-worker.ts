@@ -8,12 +8,20 @@ import type { CorrectionStandard } from '../../shared/dyno/index'
 import { checkPullFile, decodeUploadedBytes } from '../services/workspace/pull-check'
 import { checkPullBatchFiles } from '../services/workspace/pull-batch-check'
 import { encodePoints } from '../services/workspace/pull-points'
-import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckRefusal, type PullCheckTask, type PullImportAnswer } from '../services/workspace/pull-check-task'
+import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckRefusal, type PullCheckTask, type PullImportAnswer, type StoredPullToCheck } from '../services/workspace/pull-check-task'
+import type { PullToImport } from '../services/workspace/pull-import'
 
 function lines(text: string): number {
   let n = 0
   for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) n++
   return n + 1
+}
+
+/** The 413 of one check whose files hold more lines together than pullCheckRowsCap (every kind of check has the same cap). */
+function rowsRefusal(texts: readonly string[], advice: string): PullCheckRefusal | undefined {
+  const rows = texts.reduce((n, text) => n + lines(text), 0)
+  if (rows <= pullCheckRowsCap) return undefined
+  return { ok: false, status: 413, message: `These files have ${rows.toLocaleString('en-US')} lines together; one check takes up to ${pullCheckRowsCap.toLocaleString('en-US')}. ${advice}` }
 }
 
 /** The name of files[index] of a body not yet validated, for messages only. */
@@ -39,17 +47,23 @@ function readFiles<T extends { files: { text: string }[] }>(body: Uint8Array, sc
     })
     return { ok: false, status: 400, message: issues.map(i => `${i.path}: ${i.message}`).join('; '), data: { issues } }
   }
-  const rows = parsed.data.files.reduce((n, f) => n + lines(f.text), 0)
-  if (rows > pullCheckRowsCap) {
-    return { ok: false, status: 413, message: `These files have ${rows.toLocaleString('en-US')} lines together; one check takes up to ${pullCheckRowsCap.toLocaleString('en-US')}. Check fewer files at once.` }
-  }
-  return parsed.data
+  return rowsRefusal(parsed.data.files.map(f => f.text), 'Check fewer files at once.') ?? parsed.data
 }
 
 function importBody(body: Uint8Array, standard: CorrectionStandard): PullImportAnswer {
   const files = readFiles(body, CommitPullsBody, true)
   if ('ok' in files) return files
-  const result = checkPullBatchFiles(files.files, standard)
+  return checkBatch(files.files, standard)
+}
+
+/** Stored files as bytes: decoded here, capped like a request, checked as one batch. */
+function storedBatch(files: StoredPullToCheck[], standard: CorrectionStandard): PullImportAnswer {
+  const decoded: PullToImport[] = files.map(f => ({ name: f.name, text: decodeUploadedBytes(f.bytes), bytes: f.bytes.byteLength, mapping: f.mapping, setupId: f.setupId, weather: f.weather, dynoCorrected: f.dynoCorrected }))
+  return rowsRefusal(decoded.map(f => f.text), 'Assign fewer files at once.') ?? checkBatch(decoded, standard)
+}
+
+function checkBatch(files: PullToImport[], standard: CorrectionStandard): PullImportAnswer {
+  const result = checkPullBatchFiles(files, standard)
   if (!result.ok) return { ok: false, status: 422, message: result.message, data: result.data }
   // The text goes back once (input.text is what is stored); the points as one string.
   const pulls = result.pulls.map(p => ({
@@ -62,9 +76,13 @@ function importBody(body: Uint8Array, standard: CorrectionStandard): PullImportA
 
 export default function checkInWorker(task: PullCheckTask): PullCheckAnswer | PullImportAnswer {
   if (task.kind === 'files') {
-    return { ok: true, previews: task.files.map(f => checkPullFile({ name: f.name, text: decodeUploadedBytes(f.bytes), bytes: f.bytes.byteLength, mapping: f.mapping }).preview) }
+    const texts = task.files.map(f => decodeUploadedBytes(f.bytes))
+    const over = rowsRefusal(texts, 'Send fewer files at once.')
+    if (over) return over
+    return { ok: true, previews: task.files.map((f, i) => checkPullFile({ name: f.name, text: texts[i]!, bytes: f.bytes.byteLength, mapping: f.mapping }).preview) }
   }
   if (task.kind === 'import-body') return importBody(task.body, task.standard)
+  if (task.kind === 'batch-files') return storedBatch(task.files, task.standard)
   const files = readFiles(task.body, PreviewPullsBody, false)
   if ('ok' in files) return files
   return { ok: true, previews: files.files.map(f => checkPullFile(f).preview) }

@@ -26,7 +26,7 @@ export interface RuntimeStats {
   eventLoop: { sinceMs: number, maxDelayMs: number, p99DelayMs: number, meanDelayMs: number }
   memory: { rssMb: number, heapUsedMb: number, externalMb: number, arrayBuffersMb: number }
   photoJobs: { active: number }
-  pullChecks: { threads: number, running: number, queued: number }
+  pullChecks: ReturnType<typeof pullCheckStats>
   /** What the start-up check found: can the bucket be listed without credentials? */
   storageListing: ListingCheck
 }

@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Client } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { signedIn } from '../support/http'
-import { createBenchTest, createSetup, DEMO, expectOk, newWriter, pullCsv } from '../support/workspace'
+import { createBenchTest, createSetup, DEMO, expectOk, newWriter, pullCsv, uploadFiles } from '../support/workspace'
 
 afterAll(closeTestDb)
 
@@ -93,5 +93,36 @@ describe('pull checks in the worker pool', () => {
     expect(busy.length).toBeGreaterThan(0)
     expect(Number(busy[0]!.headers.get('retry-after'))).toBeGreaterThan(0)
     expect(await savedPulls()).toBe(before + statuses.filter(s => s === 201).length)
+  })
+
+  it('checks stored files in the pool too: the operator\'s upload, the inbox assignment and the dyno day\'s filing, with the rows cap', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const sent = async () => expectOk(await admin.get('/api/admin/runtime')).pullChecks.sent as Record<string, number>
+    const token = expectOk(await writer.post(`/api/bench-tests/${benchTestId}/operator-links`, { expiresInHours: 2 }), 201).token as string
+    const before = await sent()
+
+    expectOk(await uploadFiles(token, [{ name: 'inbox-1.csv', text: pullCsv({ seed: 26 }).csv }]), 201)
+    const entry = expectOk(await writer.get(`/api/bench-tests/${benchTestId}/inbox`)).files.find((f: { fileName: string }) => f.fileName === 'inbox-1.csv')
+    const assigned = expectOk(await writer.post(`/api/bench-tests/${benchTestId}/inbox/assign`, { items: [{ fileId: entry.id, setupId, weather: null, dynoCorrected: true }] }), 201)
+    expect(assigned.pulls[0]).toMatchObject({ fileName: 'inbox-1.csv', setupId })
+    const afterAssign = await sent()
+    expect(afterAssign.files).toBe(before.files! + 1)
+    expect(afterAssign['batch-files']).toBe(before['batch-files']! + 1)
+
+    // A running day files a good file with its weather straight into the current step, checked in the pool.
+    const plan = `/api/bench-tests/${benchTestId}/plan`
+    const saved = expectOk(await writer.request('PUT', plan, { json: { version: 0, acceptance: { rpmFrom: 3000, rpmTo: 6000, coolantF: null, oilF: null, airTempF: null, baroInHg: null, repeatPct: 1 }, steps: [{ setupId, partsChange: '', swapMinutes: null, plannedPulls: 2, checklist: [] }] } })).plan
+    expectOk(await writer.post(`${plan}/day`, { action: 'start', stepId: saved.steps[0].id }))
+    const filed = expectOk(await uploadFiles(token, [{ name: 'day-1.csv', text: pullCsv({ seed: 27 }).csv }]), 201)
+    expect(filed.received[0].filedTo).toBe('Pool baseline')
+    const afterDay = await sent()
+    expect(afterDay.files).toBe(afterAssign.files! + 1)
+    expect(afterDay['batch-files']).toBe(afterAssign['batch-files']! + 1)
+
+    // The operator's upload has the same rows cap as a writer's check.
+    const lines = `RPM,Torque (lb-ft)\n${'3000,400\n'.repeat(199_000)}`
+    const many = await uploadFiles(token, Array.from({ length: 5 }, (_, i) => ({ name: `op-rows-${i}.csv`, text: lines })))
+    expect(many.status).toBe(413)
+    expect(many.body.message).toMatch(/lines together; one check takes up to 800,000/)
   })
 })

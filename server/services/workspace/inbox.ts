@@ -3,9 +3,8 @@
 import type { Knex } from 'knex'
 import type { ColumnRole, CorrectionStandard } from '../../../shared/dyno/index'
 import type { AssignInboxInput, InboxFile, InboxState, PullFilePreview } from '../../../shared/types/workspace'
-import { decodeUploadedBytes } from './pull-check'
-import { checkPullBatch, insertCheckedPulls } from './pull-import'
-import { checkUploadedFiles } from './pull-pool'
+import { insertCheckedPulls } from './pull-import'
+import { checkStoredPullBatch, checkUploadedFiles } from './pull-pool'
 import { httpError, missing } from '../../utils/http-errors'
 import { isoTimeRequired, parseJsonColumn } from '../../utils/rows'
 
@@ -57,16 +56,15 @@ async function inboxFile(db: Db, benchTestId: number, fileId: number): Promise<I
   return toInboxFile(row)
 }
 
-async function inboxText(db: Db, fileId: number): Promise<{ text: string, bytes: number }> {
+async function inboxBytes(db: Db, fileId: number): Promise<Buffer> {
   const row = await db('inbox_files').where({ id: fileId }).first('content') as { content: Buffer }
-  return { text: decodeUploadedBytes(row.content), bytes: row.content.byteLength }
+  return row.content
 }
 
 /** The stored file checked again, with a column mapping; nothing is saved. */
 export async function previewInboxFile(db: Db, benchTestId: number, fileId: number, mapping?: Record<string, ColumnRole>): Promise<PullFilePreview> {
   const file = await inboxFile(db, benchTestId, fileId)
-  const row = await db('inbox_files').where({ id: fileId }).first('content') as { content: Buffer }
-  const [preview] = await checkUploadedFiles([{ name: file.fileName, bytes: row.content, mapping }])
+  const [preview] = await checkUploadedFiles([{ name: file.fileName, bytes: await inboxBytes(db, fileId), mapping }])
   return preview!
 }
 
@@ -76,9 +74,10 @@ export async function assignInboxFiles(db: Knex, userId: number, benchTestId: nu
   if (new Set(input.items.map(i => i.fileId)).size !== input.items.length) throw httpError(400, 'A file is listed twice.')
   const notWaiting = files.find(f => f.state !== 'waiting')
   if (notWaiting) throw httpError(409, `${notWaiting.fileName} was already ${notWaiting.state}.`)
-  const texts = await Promise.all(files.map(f => inboxText(db, f.id)))
-  const checked = checkPullBatch(input.items.map((item, i) => ({
-    name: files[i]!.fileName, text: texts[i]!.text, bytes: texts[i]!.bytes, mapping: item.mapping, setupId: item.setupId, weather: item.weather, dynoCorrected: item.dynoCorrected,
+  const stored = await Promise.all(files.map(f => inboxBytes(db, f.id)))
+  // Decoded and checked in the pull-check pool (server/utils/pull-pool.ts), never on the server's thread.
+  const checked = await checkStoredPullBatch(input.items.map((item, i) => ({
+    name: files[i]!.fileName, bytes: stored[i]!, mapping: item.mapping, setupId: item.setupId, weather: item.weather, dynoCorrected: item.dynoCorrected,
   })), standard)
   return db.transaction(async (trx) => {
     const ids: number[] = []

@@ -4,8 +4,7 @@
 import { createHash, randomBytes } from 'node:crypto'
 import type { Knex } from 'knex'
 import { OPERATOR_LINK_LIMITS, PULL_LIMITS, type CreatedOperatorLink, type CreateOperatorLinkInput, type OperatorLink, type OperatorLinkState, type UploadLinkInfo, type UploadReceipt } from '../../../shared/types/workspace'
-import { decodeUploadedBytes } from './pull-check'
-import { fileArrivalIntoPlan } from './dyno-day-filing'
+import { fileArrivalIntoPlan, planArrivals } from './dyno-day-filing'
 import { bumpLiveMark } from './live-marks'
 import { checkUploadedFiles } from './pull-pool'
 import { httpError, missing } from '../../utils/http-errors'
@@ -145,6 +144,8 @@ export async function receiveUploads(db: Knex, token: string, files: readonly Up
   if (files.length > PULL_LIMITS.maxFilesPerBatch) throw httpError(400, `Send at most ${PULL_LIMITS.maxFilesPerBatch} files at once.`)
   // Checked in the worker pool before the link row is locked: a slow check holds no lock.
   const previews = await checkUploadedFiles(files.map(f => ({ name: f.name, bytes: f.data })))
+  // During a dyno day a good file goes straight to the plan's current step: checked as a pull now, in the pool too.
+  const planned = await planArrivals(db, (await usableLink(db, token)).bench_test_id, files.map((f, i) => ({ name: f.name, bytes: f.data, ok: previews[i]!.ok, weather: previews[i]!.weather })))
   return db.transaction(async (trx) => {
     const link = await usableLink(trx, token, { lock: true })
     for (const f of files) {
@@ -165,7 +166,6 @@ export async function receiveUploads(db: Knex, token: string, files: readonly Up
     const received: UploadReceipt['received'] = []
     for (const [i, f] of files.entries()) {
       const preview = previews[i]!
-      const text = decodeUploadedBytes(f.data)
       const [inboxId] = await trx('inbox_files').insert({
         bench_test_id: link.bench_test_id,
         operator_link_id: link.id,
@@ -175,8 +175,8 @@ export async function receiveUploads(db: Knex, token: string, files: readonly Up
         preview: JSON.stringify(preview),
         ok: preview.ok,
       })
-      // During a dyno day the file goes straight to the plan's current setup (server/services/workspace/dyno-day.ts).
-      const filedTo = preview.ok ? await fileArrivalIntoPlan(trx, link.bench_test_id, link.id, Number(inboxId), { name: f.name, text, bytes: f.data.byteLength, weather: preview.weather }) : null
+      // During a dyno day the file goes straight to the plan's current setup (server/services/workspace/dyno-day-filing.ts).
+      const filedTo = await fileArrivalIntoPlan(trx, link.bench_test_id, link.id, Number(inboxId), planned[i]!)
       received.push({ name: f.name, sizeBytes: f.data.byteLength, ok: preview.ok, problemCount: preview.problems.length, ...(filedTo ? { filedTo } : {}) })
     }
     await trx('operator_links').where({ id: link.id }).update({ files_received: trx.raw('files_received + ?', [files.length]) })

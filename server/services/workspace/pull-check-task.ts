@@ -1,5 +1,5 @@
 // The messages between the server and the pull check worker (server/pull-worker/).
-import type { ColumnRole, CorrectionStandard } from '../../../shared/dyno/index'
+import type { ColumnRole, CorrectionStandard, Weather } from '../../../shared/dyno/index'
 import { PULL_LIMITS, type PullFilePreview } from '../../../shared/types/workspace'
 import type { CheckedPull } from './pull-import'
 
@@ -10,6 +10,18 @@ export type PullCheckTask
     | { kind: 'import-body', body: Uint8Array, standard: CorrectionStandard }
   /** Files as uploaded bytes (the operator's upload, a stored inbox file). */
     | { kind: 'files', files: { name: string, bytes: Uint8Array, mapping?: Record<string, ColumnRole> }[] }
+  /** Stored files (inbox assignment, dyno-day filing) checked as one batch before they are saved. */
+    | { kind: 'batch-files', files: StoredPullToCheck[], standard: CorrectionStandard }
+
+/** A stored file as bytes, with what the import needs beside it. */
+export interface StoredPullToCheck {
+  name: string
+  bytes: Uint8Array
+  mapping?: Record<string, ColumnRole>
+  setupId: number
+  weather: Weather | null
+  dynoCorrected?: boolean
+}
 
 /** A refusal, answered as it is: 400 (body: data.issues), 413 (rows), 422 (a refused batch: ImportRefusedData). */
 export interface PullCheckRefusal { ok: false, status: 400 | 413 | 422, message: string, data?: unknown }

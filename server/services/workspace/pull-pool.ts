@@ -9,7 +9,7 @@ import { createError } from 'h3'
 import checkInWorker from '../../pull-worker/pull-check-worker'
 import type { ColumnRole, CorrectionStandard } from '../../../shared/dyno/index'
 import type { PullFilePreview } from '../../../shared/types/workspace'
-import type { PullCheckAnswer, PullCheckRefusal, PullCheckTask, PullImportAnswer } from './pull-check-task'
+import type { PullCheckAnswer, PullCheckRefusal, PullCheckTask, PullImportAnswer, StoredPullToCheck } from './pull-check-task'
 import type { CheckedPull } from './pull-import'
 import { findWorkerFile } from '../../utils/worker-files'
 
@@ -44,9 +44,12 @@ function checkPool(): Piscina | null {
   return pool
 }
 
-export function pullCheckStats(): { threads: number, running: number, queued: number } {
+/** Checks handed to the pool since start, by kind (the tests see which paths use it). */
+const sent: Record<PullCheckTask['kind'], number> = { 'preview-body': 0, 'import-body': 0, 'files': 0, 'batch-files': 0 }
+
+export function pullCheckStats(): { threads: number, running: number, queued: number, sent: Record<PullCheckTask['kind'], number> } {
   const p = pool ?? null
-  return { threads: p?.threads.length ?? 0, running: p ? p.utilization : 0, queued: p?.queueSize ?? 0 }
+  return { threads: p?.threads.length ?? 0, running: p ? p.utilization : 0, queued: p?.queueSize ?? 0, sent: { ...sent } }
 }
 
 const busy = () => createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: 'The server is checking as many files as it can right now. Try again in a few seconds.', data: { retryAfterSeconds: 5 } })
@@ -54,6 +57,7 @@ const busy = () => createError({ statusCode: 503, statusMessage: 'Service Unavai
 async function run(task: PullCheckTask, transfer: ArrayBuffer[]): Promise<PullCheckAnswer | PullImportAnswer> {
   const p = checkPool()
   if (!p) return checkInWorker(task)
+  sent[task.kind]++
   try {
     // Piscina's TransferList type follows postMessage's older overload; an ArrayBuffer list is what it moves.
     return await p.run(task, { transferList: transfer as unknown as Parameters<Piscina['run']>[1] extends { transferList?: infer T } ? T : never }) as PullCheckAnswer | PullImportAnswer
@@ -101,6 +105,17 @@ export async function checkImportBody(body: Buffer, standard: CorrectionStandard
 /** Uploaded files checked in the pool; previews in the same order. */
 export async function checkUploadedFiles(files: { name: string, bytes: Uint8Array, mapping?: Record<string, ColumnRole> }[]): Promise<PullFilePreview[]> {
   return answered(await run({ kind: 'files', files }, []))
+}
+
+/**
+ * Stored files (an inbox assignment, a file filed into a dyno day's step) checked as one
+ * batch in the pool, bytes and all: a refused batch throws 422 with every file's preview,
+ * as checkPullBatch does; 413 past the rows cap; 503 with Retry-After for a full pool.
+ */
+export async function checkStoredPullBatch(files: StoredPullToCheck[], standard: CorrectionStandard): Promise<CheckedPull[]> {
+  const answer = await run({ kind: 'batch-files', files, standard }, [])
+  if (!answer.ok) refused(answer)
+  return (answer as { pulls: CheckedPull[] }).pulls
 }
 
 /** Answers 503 with Retry-After for a full pool; used by the routes' error paths. */
