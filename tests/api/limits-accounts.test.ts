@@ -142,3 +142,44 @@ describe('password change', () => {
     expect((await from(freshIp(), 'POST', '/api/auth/password-reset/confirm', { token, password: 'reset-after-change' })).status).toBe(400)
   })
 })
+
+describe('answers that cannot depend on the address', () => {
+  // Structural, not timed: the test holds a write lock on the users table, so any
+  // per-address work (looking the address up, a token, an account, a mail) waits for it.
+  // Every answer must still come while the lock is held, for known and unknown addresses
+  // alike; the work happens once the lock goes. A route that did its work before
+  // answering would not answer at all until the lock went, and the test would fail.
+  it('reset requests and registrations answer before any work on the address, then do it', async () => {
+    const { email: known } = await newReader()
+    const unknown = uniqueEmail('nobody')
+    const fresh = uniqueEmail('fresh')
+    const lock = await testDb().transaction()
+    let answers: { status: number, body: unknown, ms: number }[]
+    try {
+      await lock.raw('LOCK TABLES users WRITE')
+      const ask = async (path: string, json: unknown) => {
+        const t0 = performance.now()
+        const res = await from(freshIp(), 'POST', path, json)
+        return { status: res.status, body: res.body, ms: Math.round(performance.now() - t0) }
+      }
+      const timeout = new Promise<never>((_, reject) => setTimeout(() => reject(new Error('no answer within 10 s while the users table was locked: the route works on the address before answering')), 10_000))
+      answers = await Promise.race([Promise.all([
+        ask('/api/auth/password-reset', { email: known }),
+        ask('/api/auth/password-reset', { email: unknown }),
+        ask('/api/auth/register', { email: known, displayName: 'Someone else' }),
+        ask('/api/auth/register', { email: fresh, displayName: 'Someone new' }),
+      ]), timeout])
+      // Still locked: nothing of the work can have happened.
+      expect(caughtMail().filter(m => (m.to.includes(known) || m.to.includes(fresh)) && /Reset your|already have|Finish creating/.test(m.subject))).toEqual([])
+    }
+    finally {
+      await lock.raw('UNLOCK TABLES')
+      await lock.commit()
+    }
+    expect(answers.map(a => [a.status, a.body])).toEqual([[200, { ok: true }], [200, { ok: true }], [202, { mailed: true }], [202, { mailed: true }]])
+    await waitForMail(known, /Reset your Pullsheet password/)
+    await waitForMail(known, /already have a Pullsheet account/)
+    await waitForMail(fresh, /Finish creating/)
+    expect(caughtMail().some(m => m.to.includes(unknown))).toBe(false)
+  })
+})

@@ -1,6 +1,7 @@
 import { RegisterBody } from '#shared/types/users'
 import { assertAttemptAllowed, clientIp, recordAttempt } from '~~/server/services/accounts/login-limit'
-import { afterAnswer, registerOrTellOwner } from '~~/server/services/accounts/requests'
+import { afterAnswer } from '~~/server/services/accounts/after-answer'
+import { registerOrTellOwner } from '~~/server/services/accounts/requests'
 
 /**
  * Readers sign themselves up; other roles are given by an admin. The answer is the

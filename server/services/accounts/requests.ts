@@ -1,15 +1,8 @@
 // Account requests that must not tell whether an address has an account: a password
 // reset request and a registration answer the same at once, and the work that depends
-// on the address (a token, an account, a mail) happens after the answer.
-import type { H3Event } from 'h3'
+// on the address (a token, an account, a mail) happens after the answer (afterAnswer,
+// server/services/accounts/after-answer.ts).
 import { createUser, findUserByEmail, issueUserToken } from './users'
-
-/** Runs work after the answer is sent; a failure is logged, never shown to the asker. */
-export function afterAnswer(event: H3Event, what: string, work: () => Promise<void>): void {
-  event.waitUntil(work().catch((error) => {
-    console.error(`[account] ${what} failed: ${(error as Error)?.message ?? error}`)
-  }))
-}
 
 export async function mailPasswordReset(email: string): Promise<void> {
   const user = await findUserByEmail(email)

@@ -1,6 +1,7 @@
 import { ResetRequestBody } from '#shared/types/users'
 import { assertAttemptAllowed, clientIp, recordAttempt } from '~~/server/services/accounts/login-limit'
-import { afterAnswer, mailPasswordReset } from '~~/server/services/accounts/requests'
+import { afterAnswer } from '~~/server/services/accounts/after-answer'
+import { mailPasswordReset } from '~~/server/services/accounts/requests'
 
 /**
  * Always answers the same, at once: whether the address has an account is decided
