@@ -58,7 +58,7 @@ try {
     await migrate(settings.DATABASE_URL!)
     process.env.PULLSHEET_DEMO_STORIES = '0' // tests make their own stories
     await seed(settings.DATABASE_URL!)
-    const serverExtra = { MAIL_POLL_MS: '300', MAIL_RETRY_BASE_SECONDS: '1', TRUST_PROXY: '1' }
+    const serverExtra = { MAIL_POLL_MS: '300', MAIL_RETRY_BASE_SECONDS: '1', TRUST_PROXY: '1', HOUSEKEEPING_DELAY_SECONDS: '2', HOUSEKEEPING_MINUTES: '0.05' }
     app = await startApp(testEnv, serverExtra)
     const testVars = {
       ...settings,
