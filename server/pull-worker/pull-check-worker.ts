@@ -35,9 +35,10 @@ function fileName(json: unknown, index: unknown): string | undefined {
  * JSON body -> validated files with the rows cap, or the 400/413 the route answers.
  * `named` puts the file's name before each of its problems, as server/utils/validation.ts's batchParser does.
  */
-function readFiles<T extends { files: { text: string }[] }>(body: Uint8Array, schema: ZodType<T>, named: boolean): T | PullCheckRefusal {
+function readFiles<T extends { files: { text: string }[] }>(body: Uint8Array[], schema: ZodType<T>, named: boolean): T | PullCheckRefusal {
   let json: unknown
-  try { json = JSON.parse(Buffer.from(body.buffer, body.byteOffset, body.byteLength).toString('utf8')) }
+  // The pieces are joined here, on the worker's thread.
+  try { json = JSON.parse(Buffer.concat(body).toString('utf8')) }
   catch { return { ok: false, status: 400, message: 'The request body is not valid JSON.' } }
   const parsed = schema.safeParse(json)
   if (!parsed.success) {
@@ -50,7 +51,7 @@ function readFiles<T extends { files: { text: string }[] }>(body: Uint8Array, sc
   return rowsRefusal(parsed.data.files.map(f => f.text), 'Check fewer files at once.') ?? parsed.data
 }
 
-function importBody(body: Uint8Array, standard: CorrectionStandard): PullImportAnswer {
+function importBody(body: Uint8Array[], standard: CorrectionStandard): PullImportAnswer {
   const files = readFiles(body, CommitPullsBody, true)
   if ('ok' in files) return files
   return checkBatch(files.files, standard)

@@ -4,10 +4,10 @@ import { PULL_LIMITS, type PullFilePreview } from '../../../shared/types/workspa
 import type { CheckedPull } from './pull-import'
 
 export type PullCheckTask
-  /** A JSON body of POST .../pulls/preview, as received. */
-  = | { kind: 'preview-body', body: Uint8Array }
+  /** A JSON body of POST .../pulls/preview, as received: its pieces in order (readLimitedBodySegments). */
+  = | { kind: 'preview-body', body: Uint8Array[] }
   /** A JSON body of POST .../pulls/import, as received, and the bench test's correction standard. */
-    | { kind: 'import-body', body: Uint8Array, standard: CorrectionStandard }
+    | { kind: 'import-body', body: Uint8Array[], standard: CorrectionStandard }
   /** Files as uploaded bytes (the operator's upload, a stored inbox file). */
     | { kind: 'files', files: { name: string, bytes: Uint8Array, mapping?: Record<string, ColumnRole> }[] }
   /** Stored files (inbox assignment, dyno-day filing) checked as one batch before they are saved. */

@@ -79,25 +79,24 @@ function answered(answer: PullCheckAnswer | PullImportAnswer): PullFilePreview[]
   return (answer as { previews: PullFilePreview[] }).previews
 }
 
-/** A request body as the worker takes it; only a buffer of its own may be moved (small ones share Node's pool). */
-function bodyTask(body: Buffer): { bytes: Uint8Array, transfer: ArrayBuffer[] } {
-  const own = body.byteOffset === 0 && body.byteLength === body.buffer.byteLength
-  return { bytes: new Uint8Array(body.buffer, body.byteOffset, body.byteLength), transfer: own ? [body.buffer as ArrayBuffer] : [] }
+/** A request body's pieces (readLimitedBodySegments), moved to the worker rather than copied. */
+function bodyTask(body: Uint8Array<ArrayBuffer>[]): { body: Uint8Array[], transfer: ArrayBuffer[] } {
+  return { body, transfer: body.map(piece => piece.buffer) }
 }
 
 /** A preview request's JSON body, parsed, validated and checked in the pool. */
-export async function checkPreviewBody(body: Buffer): Promise<PullFilePreview[]> {
-  const { bytes, transfer } = bodyTask(body)
-  return answered(await run({ kind: 'preview-body', body: bytes }, transfer))
+export async function checkPreviewBody(pieces: Uint8Array<ArrayBuffer>[]): Promise<PullFilePreview[]> {
+  const { body, transfer } = bodyTask(pieces)
+  return answered(await run({ kind: 'preview-body', body }, transfer))
 }
 
 /**
  * An import request's JSON body, parsed, validated (CommitPullsBody) and checked as a
  * batch in the pool: 400/413 as the preview answers them, 422 for a refused batch.
  */
-export async function checkImportBody(body: Buffer, standard: CorrectionStandard): Promise<CheckedPull[]> {
-  const { bytes, transfer } = bodyTask(body)
-  const answer = await run({ kind: 'import-body', body: bytes, standard }, transfer)
+export async function checkImportBody(pieces: Uint8Array<ArrayBuffer>[], standard: CorrectionStandard): Promise<CheckedPull[]> {
+  const { body, transfer } = bodyTask(pieces)
+  const answer = await run({ kind: 'import-body', body, standard }, transfer)
   if (!answer.ok) refused(answer)
   return (answer as { pulls: CheckedPull[] }).pulls
 }

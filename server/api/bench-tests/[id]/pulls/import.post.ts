@@ -10,7 +10,7 @@ import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/
 // files; this thread only saves the checked pulls in one transaction.
 export default defineEventHandler(async (event): Promise<CommitPullsResponse> => {
   const { user, params, benchTest } = await requireWorkspace(event, BenchTestParams)
-  const body = await readLimitedBody(event)
+  const body = await readLimitedBodySegments(event)
   const checked = await checkImportBody(body, benchTest.default_standard as CorrectionStandard)
   const db = useDb()
   const ids = await db.transaction(trx => insertCheckedPulls(trx, params.id, checked, { userId: user.id }))

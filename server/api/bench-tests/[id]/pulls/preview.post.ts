@@ -7,6 +7,6 @@ import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/
 // it (PreviewPullsBody, in the worker) would hold up the event loop as long as the check.
 export default defineEventHandler(async (event): Promise<PreviewPullsResponse> => {
   await requireWorkspace(event, BenchTestParams)
-  const body = await readLimitedBody(event)
+  const body = await readLimitedBodySegments(event)
   return { files: await checkPreviewBody(body) }
 })
