@@ -25,7 +25,7 @@ export const KEEP_DAYS = { userTokens: 7, jobs: 30, mails: 30 } as const
 /** The limiter only counts attempts inside its window; the longest window of any kind. */
 export const attemptWindowMinutes = Math.max(...Object.values(ATTEMPT_RULES).map(r => r.windowMinutes))
 
-async function inBatches(db: Knex, sql: string, bindings: readonly unknown[]): Promise<number> {
+async function inBatches(db: Knex, sql: string, bindings: readonly Knex.RawBinding[]): Promise<number> {
   let total = 0
   for (;;) {
     const [result] = await db.raw(`${sql} LIMIT ${PURGE_BATCH}`, bindings) as [{ affectedRows: number }]
