@@ -1,4 +1,5 @@
-// Every app server trims the tables that only grow (server/utils/housekeeping.ts) a
+import { purgeExpiredRows } from '~~/server/services/accounts/housekeeping'
+// Every app server trims the tables that only grow (server/services/accounts/housekeeping.ts) a
 // little after start and then every HOUSEKEEPING_MINUTES, as the photo sweep runs.
 export default defineNitroPlugin((nitroApp) => {
   if (import.meta.prerender || process.env.PULLSHEET_WORKERS === '0') return
