@@ -1,5 +1,5 @@
 // Tables that only grow are trimmed (issue 14, item 3's limiter and its neighbours):
-// server/utils/housekeeping.ts, run periodically by server/plugins/housekeeping.ts
+// server/services/accounts/housekeeping.ts, run periodically by server/plugins/housekeeping.ts
 // (the test server runs it every few seconds: HOUSEKEEPING_MINUTES in scripts/test.ts)
 // and on demand by an admin. Rows a rule still reads stay.
 import { randomBytes } from 'node:crypto'

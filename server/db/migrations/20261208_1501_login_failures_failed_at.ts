@@ -1,6 +1,6 @@
 import type { Knex } from 'knex'
 
-// Housekeeping deletes the limiter's rows past every window (server/utils/housekeeping.ts)
+// Housekeeping deletes the limiter's rows past every window (server/services/accounts/housekeeping.ts)
 // by their time alone.
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable('login_failures', (t) => {

@@ -75,7 +75,7 @@ export async function assignInboxFiles(db: Knex, userId: number, benchTestId: nu
   const notWaiting = files.find(f => f.state !== 'waiting')
   if (notWaiting) throw httpError(409, `${notWaiting.fileName} was already ${notWaiting.state}.`)
   const stored = await Promise.all(files.map(f => inboxBytes(db, f.id)))
-  // Decoded and checked in the pull-check pool (server/utils/pull-pool.ts), never on the server's thread.
+  // Decoded and checked in the pull-check pool (server/services/workspace/pull-pool.ts), never on the server's thread.
   const checked = await checkStoredPullBatch(input.items.map((item, i) => ({
     name: files[i]!.fileName, bytes: stored[i]!, mapping: item.mapping, setupId: item.setupId, weather: item.weather, dynoCorrected: item.dynoCorrected,
   })), standard)
