@@ -68,6 +68,7 @@ const st = (f: AuthzFixture) => `/api/stories/${f.storyId}`
 
 export const AUTHZ_MATRIX: Record<string, MatrixEntry> = {
   'POST /api/admin/photos/sweep': { expect: ADMIN, path: () => '/api/admin/photos/sweep', body: () => ({ graceSeconds: 86400 }) },
+  'POST /api/admin/housekeeping': { expect: ADMIN, path: () => '/api/admin/housekeeping', body: () => ({}) },
   'GET /api/admin/runtime': { expect: ADMIN, path: () => '/api/admin/runtime' },
   'POST /api/admin/runtime/reset': { expect: ADMIN, path: () => '/api/admin/runtime/reset' },
   'GET /api/admin/settings': { expect: ADMIN, path: () => '/api/admin/settings' },
