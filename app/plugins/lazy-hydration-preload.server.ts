@@ -1,6 +1,5 @@
-// A component hydrated lazily (Nuxt's <LazyX hydrate-on-visible> and the like, or
-// hydratedWhenVisible in app/utils/lazyHydration.ts) should not have its code in the
-// page's first load. Nuxt 4.4.5 means to leave such a component's module out of the
+// A component hydrated lazily (Nuxt's <LazyX hydrate-on-visible> and the like) should
+// not have its code in the page's first load. Nuxt 4.4.5 means to leave such a component's module out of the
 // modulepreload links, but does it too late (nuxt/nuxt#35145, fixed upstream by
 // #35342: the module list had already been read, and cached, for the stylesheets),
 // and it never leaves out the components rendered inside it.
