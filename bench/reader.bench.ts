@@ -7,7 +7,9 @@
 // request asking for Brotli as browsers do, so every row moves the same bytes.
 // Measures, in one run:
 //   1. nginx static file (the yardstick)                requests/s
-//   2. cached story page from Node alone                >= 0.85 of row 1
+//      1a. with worker_processes auto (one per core, 2 here), as Debian ships it
+//      1b. with one worker: the same number of processes as the one Node process
+//   2. cached story page from Node alone                >= 0.85 of row 1 (both ratios printed)
 //   3. the same page through the shipped nginx config   >= 0.95 of row 1
 //   4. uncached story page (a signed-in reader: never cached), p95 at 10 concurrent < 60 ms
 //   5. first-load JS of the story page                  < 120 KB gzip
@@ -27,7 +29,36 @@ const WARMUP_SECONDS = 3
 const CONNECTIONS = 50
 const STATIC_PORT = 8461
 const CACHE_PORT = 8462
+const STATIC_ONE_WORKER_PORT = 8463
 const dir = join(ROOT, '.data', 'bench', 'nginx')
+
+/** The yardstick with one worker: a second nginx, serving the same file the same way. */
+function oneWorkerConfig(): string {
+  return `
+daemon off;
+worker_processes 1;
+pid ${dir}/nginx-one.pid;
+error_log ${dir}/error-one.log warn;
+events { worker_connections 4096; }
+http {
+  access_log off;
+  sendfile on;
+  tcp_nopush on;
+  keepalive_requests 100000;
+  client_body_temp_path ${dir}/tmp-body;
+  proxy_temp_path ${dir}/tmp-proxy;
+  fastcgi_temp_path ${dir}/tmp-fastcgi;
+  uwsgi_temp_path ${dir}/tmp-uwsgi;
+  scgi_temp_path ${dir}/tmp-scgi;
+  server {
+    listen 127.0.0.1:${STATIC_ONE_WORKER_PORT};
+    root ${dir}/static;
+    default_type text/html;
+    location = /story { add_header Content-Encoding br; add_header Vary Accept-Encoding; try_files /story.html.br =404; }
+  }
+}
+`
+}
 
 function nginxConfig(appPort: number): string {
   // The story location of deploy/nginx/pullsheet.conf, on plain http for loopback.
@@ -76,6 +107,15 @@ async function rps(url: string) {
   return clean(url, await wrk(url, { connections: CONNECTIONS, seconds: SECONDS, headers: BROTLI }))
 }
 
+/** Each URL in turn, twice, half the time each; requests/s over both halves, latency of the second. */
+async function alternating(urls: string[]) {
+  const halves: Awaited<ReturnType<typeof wrk>>[][] = urls.map(() => [])
+  for (let round = 0; round < 2; round++) {
+    for (const [i, url] of urls.entries()) halves[i]!.push(clean(url, await wrk(url, { connections: CONNECTIONS, seconds: SECONDS / 2, headers: BROTLI })))
+  }
+  return halves.map(([a, b]) => ({ ...b!, requests: a!.requests + b!.requests, perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond) }))
+}
+
 async function uncachedRow(storyUrl: string, cookie: string) {
   // The server's first seconds of rendering are its JIT warming up; like rows 1 to 3
   // (whose first seconds are a small part of a far larger count) the row reports a
@@ -109,6 +149,7 @@ if (process.argv[2] === 'uncached') {
   process.exit(0)
 }
 let nginx: ReturnType<typeof import('node:child_process').spawn> | undefined
+let nginxOne: ReturnType<typeof import('node:child_process').spawn> | undefined
 try {
   const storyUrl = `${fixture.base}/stories/${fixture.slug}`
   const brotli = await new Promise<Buffer>((resolve, reject) => {
@@ -127,10 +168,14 @@ try {
   }
   writeFileSync(join(dir, 'static', 'story.html.br'), brotli)
   writeFileSync(join(dir, 'nginx.conf'), nginxConfig(Number(new URL(fixture.base).port)))
-  const check = spawnSync('nginx', ['-t', '-p', dir, '-c', join(dir, 'nginx.conf')], { encoding: 'utf8' })
-  if (check.status !== 0) throw new Error(`nginx -t: ${check.stderr}`)
+  writeFileSync(join(dir, 'nginx-one.conf'), oneWorkerConfig())
+  for (const conf of ['nginx.conf', 'nginx-one.conf']) {
+    const check = spawnSync('nginx', ['-t', '-p', dir, '-c', join(dir, conf)], { encoding: 'utf8' })
+    if (check.status !== 0) throw new Error(`nginx -t (${conf}): ${check.stderr}`)
+  }
   const { spawn } = await import('node:child_process')
   nginx = spawn('nginx', ['-p', dir, '-c', join(dir, 'nginx.conf')], { stdio: 'inherit' })
+  nginxOne = spawn('nginx', ['-p', dir, '-c', join(dir, 'nginx-one.conf')], { stdio: 'inherit' })
   await new Promise(r => setTimeout(r, 500))
 
   const edgeUrl = `http://127.0.0.1:${CACHE_PORT}/stories/${fixture.slug}`
@@ -139,15 +184,18 @@ try {
   console.log(`nginx cache status on the second request: ${edge.headers.get('x-edge-cache')}; node page cache: ${(await fetch(storyUrl, { headers: BROTLI })).headers.get('x-page-cache')}`)
   const wire = { br: await wireBytes(storyUrl, 'br'), gzip: await wireBytes(storyUrl, 'gzip'), none: await wireBytes(storyUrl, 'identity') }
 
-  console.log(`${os.cpus().length} cores, ${os.cpus()[0]?.model}; ${CONNECTIONS} connections, ${SECONDS} s each; wrk ${CONNECTIONS} connections, 2 threads, Brotli bytes (${(brotli.byteLength / 1024).toFixed(1)} KB) on every row`)
+  console.log(`${os.cpus().length} cores, ${os.cpus()[0]?.model}; load average ${os.loadavg().map(l => l.toFixed(1)).join(' ')}; wrk ${CONNECTIONS} connections, 2 threads, ${SECONDS} s each, Brotli bytes (${(brotli.byteLength / 1024).toFixed(1)} KB) on every row`)
   const stat = await rps(`http://127.0.0.1:${STATIC_PORT}/story`)
-  const row = (n: string, name: string, r: { perSecond: number, p50: number, p99: number, bytesPerRequest: number }, target?: number) =>
-    console.log(`${n}. ${name.padEnd(26)} ${r.perSecond.toFixed(0).padStart(6)} req/s${target ? ` = ${(r.perSecond / stat.perSecond).toFixed(2)} of static (target >= ${target})` : ''} (p50 ${r.p50.toFixed(2)} ms, p99 ${r.p99.toFixed(2)} ms, ${(r.bytesPerRequest / 1024).toFixed(1)} KB/answer)`)
-  row('1', 'nginx static file:', stat)
-  const node = await rps(storyUrl)
-  row('2', 'Node, page cache:', node, 0.85)
+  // Node and its one-worker yardstick take turns (two halves each), so a change in the
+  // machine's other load during the run moves both alike.
+  const [statOne, node] = await alternating([`http://127.0.0.1:${STATIC_ONE_WORKER_PORT}/story`, storyUrl])
+  const fmt = (r: { perSecond: number, p50: number, p99: number, bytesPerRequest: number }) => `(p50 ${r.p50.toFixed(2)} ms, p99 ${r.p99.toFixed(2)} ms, ${(r.bytesPerRequest / 1024).toFixed(1)} KB/answer)`
+  const rate = (r: { perSecond: number }) => `${r.perSecond.toFixed(0).padStart(6)} req/s`
+  console.log(`1a. nginx static, ${os.cpus().length} workers:  ${rate(stat)} ${fmt(stat)}`)
+  console.log(`1b. nginx static, 1 worker:   ${rate(statOne)} ${fmt(statOne)}`)
+  console.log(`2.  Node page cache, 1 process: ${rate(node)} = ${(node.perSecond / statOne.perSecond).toFixed(2)} of 1b (same process count), ${(node.perSecond / stat.perSecond).toFixed(2)} of 1a (target >= 0.85) ${fmt(node)}`)
   const cached = await rps(edgeUrl)
-  row('3', 'shipped nginx before Node:', cached, 0.95)
+  console.log(`3.  shipped nginx before Node: ${rate(cached)} = ${(cached.perSecond / stat.perSecond).toFixed(2)} of 1a (target >= 0.95) ${fmt(cached)}`)
   await uncachedRow(storyUrl, fixture.readerCookie)
   const js = await firstLoad(storyUrl)
   console.log(`5. first-load JS: ${js.files.length} files, ${(js.totalGzip / 1024).toFixed(1)} KB gzip (target < 120 KB)`)
@@ -155,5 +203,6 @@ try {
 }
 finally {
   nginx?.kill('SIGQUIT')
+  nginxOne?.kill('SIGQUIT')
   await fixture.stop()
 }

@@ -1,7 +1,9 @@
 // Serves anonymous readers from the page cache (server/utils/page-cache.ts): the
 // stored Brotli or gzip variant the reader accepts, or a 304 when the reader's copy
 // is current. On a miss it marks the request so server/plugins/page-cache.ts keeps
-// the answer.
+// the answer. Hits in the in-process store have usually been answered already, before
+// any middleware (server/plugins/page-cache-hits.ts); this serves the shared Redis
+// store's hits, and the in-process ones when PAGE_CACHE_EARLY_HITS=off.
 import type { H3Event } from 'h3'
 
 export default defineEventHandler((event) => {

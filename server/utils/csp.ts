@@ -67,3 +67,16 @@ export function embedContentSecurityPolicy(scriptHashes: string[]): string {
 export function isEmbedPath(path: string): boolean {
   return /^\/embed\//.test(path)
 }
+
+/**
+ * The headers every answer carries (server/middleware/00.security-headers.ts, and the
+ * page cache's early answers in server/plugins/page-cache-hits.ts): nothing may be
+ * framed by another site except the embed pages, whose CSP says frame-ancestors *.
+ */
+export function baseSecurityHeaders(path: string): Record<string, string> {
+  return {
+    'X-Content-Type-Options': 'nosniff',
+    'Referrer-Policy': 'strict-origin-when-cross-origin',
+    ...(isEmbedPath(path) ? {} : { 'X-Frame-Options': 'DENY' }),
+  }
+}

@@ -60,6 +60,37 @@ describe('cache headers of the reader\'s answers', () => {
     }
   })
 
+  // Hits are answered before the app's middleware (server/plugins/page-cache-hits.ts):
+  // they must say exactly what the answer that filled the cache said.
+  it('a page-cache hit carries the headers and bytes of the answer that filled the cache, in every encoding and for HEAD', async () => {
+    const base = new Client().base
+    const SAME = ['content-type', 'content-security-policy', 'cache-control', 'content-disposition', 'x-robots-tag', 'x-content-type-options', 'referrer-policy', 'x-frame-options', 'vary', 'etag', 'content-encoding']
+    const pick = (res: Response) => Object.fromEntries(SAME.map(name => [name, res.headers.get(name)]))
+    for (const path of [...paths(), `/embed/${slug}/1`]) {
+      for (const encoding of ['br', 'gzip', 'identity']) {
+        const headers = { 'accept-encoding': encoding }
+        // A fresh query string is a fresh cache entry: the first answer fills it.
+        const url = `${base}${path}?hit-test=${encoding}`
+        const filled = await fetch(url, { headers })
+        expect(filled.status, path).toBe(200)
+        expect(filled.headers.get('x-page-cache'), path).toBe('miss')
+        const filledBody = Buffer.from(await filled.arrayBuffer())
+        const hit = await fetch(url, { headers })
+        expect(hit.headers.get('x-page-cache'), path).toBe('hit')
+        expect(pick(hit), `${path} ${encoding}`).toEqual(pick(filled))
+        expect(Buffer.from(await hit.arrayBuffer()).equals(filledBody), `${path} ${encoding}`).toBe(true)
+        const head = await fetch(url, { method: 'HEAD', headers })
+        expect(head.status, path).toBe(200)
+        expect(pick(head), `${path} ${encoding} HEAD`).toEqual(pick(filled))
+      }
+    }
+    // Only the embed page may be framed by other sites, from the cache too.
+    const embed = await fetch(`${base}/embed/${slug}/1?hit-test=br`, { headers: { 'accept-encoding': 'br' } })
+    expect(embed.headers.get('x-page-cache')).toBe('hit')
+    expect(embed.headers.get('x-frame-options')).toBeNull()
+    expect((await fetch(`${base}/stories/${slug}?hit-test=br`)).headers.get('x-frame-options')).toBe('DENY')
+  })
+
   it('signed in: private, no-store, never from the page cache', async () => {
     const reader = await signedIn(DEMO.reader)
     for (const path of paths()) {
