@@ -22,7 +22,7 @@ import { join } from 'node:path'
 import { ROOT } from '../scripts/lib/env'
 import { firstLoad } from './first-load'
 import { readerFixture } from './reader-fixture'
-import { clean, wrk } from './wrk'
+import { clean, wrk, type WrkResult } from './wrk'
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 10)
 const WARMUP_SECONDS = 3
@@ -107,13 +107,15 @@ async function rps(url: string) {
   return clean(url, await wrk(url, { connections: CONNECTIONS, seconds: SECONDS, headers: BROTLI }))
 }
 
-/** Each URL in turn, twice, half the time each; requests/s over both halves, latency of the second. */
-async function alternating(urls: string[]) {
-  const halves: Awaited<ReturnType<typeof wrk>>[][] = urls.map(() => [])
+/** Each of two URLs in turn, twice, half the time each; requests/s over both halves, latency of the second. */
+async function alternating(first: string, second: string): Promise<[WrkResult, WrkResult]> {
+  const halves: [WrkResult[], WrkResult[]] = [[], []]
   for (let round = 0; round < 2; round++) {
-    for (const [i, url] of urls.entries()) halves[i]!.push(clean(url, await wrk(url, { connections: CONNECTIONS, seconds: SECONDS / 2, headers: BROTLI })))
+    halves[0].push(clean(first, await wrk(first, { connections: CONNECTIONS, seconds: SECONDS / 2, headers: BROTLI })))
+    halves[1].push(clean(second, await wrk(second, { connections: CONNECTIONS, seconds: SECONDS / 2, headers: BROTLI })))
   }
-  return halves.map(([a, b]) => ({ ...b!, requests: a!.requests + b!.requests, perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond) }))
+  const both = ([a, b]: WrkResult[]): WrkResult => ({ ...b!, requests: a!.requests + b!.requests, perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond) })
+  return [both(halves[0]), both(halves[1])]
 }
 
 async function uncachedRow(storyUrl: string, cookie: string) {
@@ -188,7 +190,7 @@ try {
   const stat = await rps(`http://127.0.0.1:${STATIC_PORT}/story`)
   // Node and its one-worker yardstick take turns (two halves each), so a change in the
   // machine's other load during the run moves both alike.
-  const [statOne, node] = await alternating([`http://127.0.0.1:${STATIC_ONE_WORKER_PORT}/story`, storyUrl])
+  const [statOne, node] = await alternating(`http://127.0.0.1:${STATIC_ONE_WORKER_PORT}/story`, storyUrl)
   const fmt = (r: { perSecond: number, p50: number, p99: number, bytesPerRequest: number }) => `(p50 ${r.p50.toFixed(2)} ms, p99 ${r.p99.toFixed(2)} ms, ${(r.bytesPerRequest / 1024).toFixed(1)} KB/answer)`
   const rate = (r: { perSecond: number }) => `${r.perSecond.toFixed(0).padStart(6)} req/s`
   console.log(`1a. nginx static, ${os.cpus().length} workers:  ${rate(stat)} ${fmt(stat)}`)

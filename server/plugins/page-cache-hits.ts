@@ -60,6 +60,9 @@ function encodingFor(header: string | undefined): Encoding | null {
 export function answerPageCacheHit(req: IncomingMessage, res: ServerResponse): boolean {
   const method = req.method
   if (method !== 'GET' && method !== 'HEAD') return false
+  // Nitro's requests to itself (a $fetch inside a render) carry stand-ins for req and
+  // res that take no list of raw headers: they go the long way, through the middleware.
+  if ('__unenv__' in req) return false
   const store = usePageStore()
   if (!(store instanceof MemoryPageStore) || store.size === 0) return false
   const target = pageCacheKeyFor(method, req.url ?? '/', req.headers.cookie ?? '')

@@ -89,6 +89,11 @@ describe('cache headers of the reader\'s answers', () => {
     expect(embed.headers.get('x-page-cache')).toBe('hit')
     expect(embed.headers.get('x-frame-options')).toBeNull()
     expect((await fetch(`${base}/stories/${slug}?hit-test=br`)).headers.get('x-frame-options')).toBe('DENY')
+    // A render's own requests to the app (the home page reads /api/magazine/home, cached
+    // by now) are not answered early: they still come back whole.
+    const home = await fetch(`${base}/?hit-test=render`, { headers: { 'accept-encoding': 'br' } })
+    expect(home.status).toBe(200)
+    expect(await home.text()).toMatch(/href="\/stories\/[a-z0-9-]+"/)
   })
 
   it('signed in: private, no-store, never from the page cache', async () => {
