@@ -11,7 +11,7 @@ import type { MagazineHome, MagazinePage, MagazineStoryCard } from '#shared/type
 import type { PhotoRecord } from '../photos/access'
 import { catchUpSearchIndex, searchHits } from './search'
 import { publicStories, publishedTextColumns } from './published'
-import { toPhoto } from '../photos/photos'
+import { toStoryPhoto } from '../stories/photos'
 
 export const MAGAZINE_PAGE_SIZE = 12
 
@@ -43,27 +43,12 @@ const cardColumns = (db: Knex) => [
   'stories.published_at',
 ]
 
-/** A photo as readers see it: web sizes only, and only once it is sized. */
-export function toReaderPhoto(row: PhotoRecord): StoryPhoto {
-  const photo = toPhoto(row)
-  return {
-    id: photo.id,
-    caption: photo.caption,
-    credit: photo.credit,
-    altText: photo.altText,
-    width: photo.width,
-    height: photo.height,
-    variants: photo.variants.map(v => ({ width: v.width, height: v.height, url: v.url })),
-    ready: photo.status === 'ready',
-  }
-}
-
 export async function magazinePhotos(db: Knex, ids: readonly number[]): Promise<Map<number, StoryPhoto>> {
   if (ids.length === 0) return new Map()
   const wanted = [...new Set(ids)]
   const rows = new Map((await db<PhotoRecord>('photos').whereIn('id', wanted)).map(r => [r.id, r]))
   // In the order asked for (the body's), not the order the database happens to return.
-  return new Map(wanted.filter(id => rows.has(id)).map(id => [id, toReaderPhoto(rows.get(id)!)]))
+  return new Map(wanted.filter(id => rows.has(id)).map(id => [id, toStoryPhoto(rows.get(id)!)]))
 }
 
 export async function magazineBylines(db: Knex, storyIds: readonly number[]): Promise<Map<number, { userId: number, displayName: string }[]>> {

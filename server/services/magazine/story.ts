@@ -24,22 +24,11 @@ import { figuresOf, listEditions, liveStoryData, publishedEdition, publishLatest
 export const ReaderAnalysisQuery = AnalysisQuery.pick({ standard: true, units: true })
 export type ReaderAnalysisInput = z.infer<typeof ReaderAnalysisQuery>
 
-interface StoryRow {
-  id: number
-  bench_test_id: number
-  slug: string
-  headline: string
-  deck: string
-  body: string
-  hero_photo_id: number | null
+/** The whole stories row, with the catalog values and the state narrowed for readers. */
+type StoryRow = Omit<StoryRowFull, 'engine_family' | 'part_type' | 'state'> & {
   engine_family: EngineFamily
   part_type: PartType
-  search_title: string
-  search_description: string
-  version: number
   state: StoryReaderView['story']['state']
-  published_at: Date | string | null
-  updated_at: Date | string
 }
 
 export interface ReaderStory { row: StoryRow, preview: boolean }
