@@ -1,24 +1,6 @@
 import type { Knex } from 'knex'
 import type { CurrentUser } from '#shared/types/users'
-
-export interface BenchTestRecord {
-  id: number
-  slug: string
-  title: string
-  engine_family: string
-  part_type: string
-  shop: string
-  dyno: string
-  tested_from: Date | string | null
-  tested_to: Date | string | null
-  notes: string
-  owner_id: number
-  default_standard: string
-  version: number
-  deleted_at: Date | string | null
-  created_at: Date | string
-  updated_at: Date | string
-}
+import type { BenchTestRecord } from './bench-test-core'
 
 /** Editors and admins reach every bench test; writers only their own. */
 export function seesAllBenchTests(user: CurrentUser): boolean {

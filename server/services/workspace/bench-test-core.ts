@@ -6,11 +6,30 @@ import type { BenchTest, CreateBenchTestInput } from '../../../shared/types/work
 import type { CorrectionStandard } from '../../../shared/dyno/index'
 import type { EngineFamily, PartType } from '../../../shared/types/catalog'
 import { withFreeSlug } from '../../utils/slug-retry'
-import type { BenchTestRecord } from './bench-test-access'
 import { missing } from '../../utils/http-errors'
 import { isoDay, isoTime, isoTimeRequired } from '../../utils/rows'
 
 type Db = Knex | Knex.Transaction
+/** A bench_tests row as stored. */
+export interface BenchTestRecord {
+  id: number
+  slug: string
+  title: string
+  engine_family: string
+  part_type: string
+  shop: string
+  dyno: string
+  tested_from: Date | string | null
+  tested_to: Date | string | null
+  notes: string
+  owner_id: number
+  default_standard: string
+  version: number
+  deleted_at: Date | string | null
+  created_at: Date | string
+  updated_at: Date | string
+}
+
 /** A bench_tests row joined with its owner's name (withOwner). */
 export interface BenchTestRow extends BenchTestRecord {
   owner_name: string

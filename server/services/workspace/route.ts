@@ -3,7 +3,7 @@ import { z, type ZodType } from 'zod'
 import { rolesAtLeast } from '#shared/accounts/roles'
 import type { CurrentUser } from '#shared/types/users'
 import { IdSchema } from '#shared/types/workspace'
-import type { BenchTestRecord } from './bench-test-access'
+import type { BenchTestRecord } from './bench-test-core'
 import { requireBenchTest } from './bench-test-access'
 
 export const BenchTestParams = z.object({ id: IdSchema })
