@@ -12,9 +12,11 @@ afterAll(closeTestDb)
 
 const MB = 1024 * 1024
 // Past the limit the server stops reading; what is in flight by then (socket buffers
-// on both sides; loopback buffers autotune to several MB each) is all that may have
-// gone out before the answer: a small part of the hundreds of MB these tests offer.
-const IN_FLIGHT = 32 * MB
+// on both sides; loopback buffers autotune to several MB each, and the server keeps
+// draining a little while its 413 reaches a slow client) is all that may have gone out
+// before the answer: a third at most of the 200 MB these tests offer. A server that
+// read the whole body would take all of it. (33.8 MB went out once on a loaded machine.)
+const IN_FLIGHT = 64 * MB
 
 let writer: Client
 let benchTestId: number
@@ -40,7 +42,7 @@ describe('body limits', () => {
   })
 
   it('refuses a declared Content-Length over the limit before reading', async () => {
-    const res = await streamBody('/api/auth/password-reset', { headers: { 'content-type': 'application/json', 'content-length': String(50 * MB) }, totalBytes: 50 * MB })
+    const res = await streamBody('/api/auth/password-reset', { headers: { 'content-type': 'application/json', 'content-length': String(200 * MB) }, totalBytes: 200 * MB })
     expect(res.status).toBe(413)
     expect(res.sentBeforeAnswer).toBeLessThan(IN_FLIGHT)
   })
@@ -48,7 +50,7 @@ describe('body limits', () => {
   it('applies the limit to every body-reading route, signed in too', async () => {
     for (const path of ['/api/stories', `/api/bench-tests/${benchTestId}/setups`, `/api/bench-tests/${benchTestId}`]) {
       const method = path.endsWith(`${benchTestId}`) ? 'PATCH' : 'POST'
-      const res = await streamBody(path, { method, headers: { 'content-type': 'application/json', 'cookie': writer.cookie }, head: '{"title":"', totalBytes: 100 * MB })
+      const res = await streamBody(path, { method, headers: { 'content-type': 'application/json', 'cookie': writer.cookie }, head: '{"title":"', totalBytes: 200 * MB })
       expect(res.status, path).toBe(413)
       expect(res.sentBeforeAnswer, path).toBeLessThan(IN_FLIGHT)
     }
