@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO_PASSWORD, signedIn } from '../support/http'
 import { createBenchTest, makeJpeg, userId, type Paint } from '../support/photos'
@@ -30,7 +30,7 @@ describe('photo gallery in the browser', () => {
   it('uploads two photos with a progress bar each, shows them sized, and keeps a caption', async () => {
     const { page, context } = browser
     await signInThroughPage(page, 'writer@example.com', DEMO_PASSWORD)
-    await page.goto(`/bench-tests/${benchTestId}/photos`)
+    await gotoReady(page, `/bench-tests/${benchTestId}/photos`)
     await page.getByTestId('photo-drop-zone').waitFor()
 
     // About 1 MB/s up, so each file takes a second or two and its bar moves.
@@ -91,5 +91,5 @@ describe('photo gallery in the browser', () => {
     expect(await page.getByTestId('photo-caption').first().inputValue()).toBe('The short-block on its stand before the headers went on.')
     const row = await testDb()('photos').where({ id: firstId, bench_test_id: benchTestId }).first()
     expect(row).toMatchObject({ caption: 'The short-block on its stand before the headers went on.', credit: 'Fictional Speed Shop' })
-  })
+  }, 150_000) // its own waits add up to 100 s (upload 30, sizing 60, list 10): the project's 60 s would cut them short on a loaded machine
 })

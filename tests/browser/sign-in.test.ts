@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD } from '../support/http'
 
 // What each role should see in the main navigation (brief: Roles).
@@ -26,7 +26,7 @@ describe('signing in through the page', () => {
 
   it('refuses a wrong password with a message', async () => {
     const { page } = browser
-    await page.goto('/login')
+    await gotoReady(page, '/login')
     await page.getByTestId('login-email').fill('writer@example.com')
     await page.getByTestId('login-password').fill('not-the-password')
     await page.getByTestId('login-submit').click()

@@ -2,7 +2,7 @@
 // network drops a save (offered back on the next visit), a stale save that opens
 // the conflict dialog instead of overwriting, revisions compared and restored.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { signedIn } from '../support/http'
 import { expectOk } from '../support/workspace'
 import { formatTime } from '#shared/utils/time-text'
@@ -25,7 +25,7 @@ describe('saving a story without losing a word', () => {
 
   it('autosaves while typing: after a reload the text is there', async () => {
     const { page } = session
-    await page.goto(`/stories/${storyId}/edit`)
+    await gotoReady(page, `/stories/${storyId}/edit`)
     await typeInBody(page, '\n\nTyped and never saved by hand.')
     await saveStateIs(page, 'saved')
     expect((await story()).body).toContain('Typed and never saved by hand.')
@@ -60,7 +60,7 @@ describe('saving a story without losing a word', () => {
 
   it('stops a stale save and keeps the writer\'s changes over the newer version, and theirs elsewhere', async () => {
     const { page } = session
-    await page.goto(`/stories/${storyId}/edit`)
+    await gotoReady(page, `/stories/${storyId}/edit`)
     await page.getByTestId('editor-body').waitFor()
     // Someone else saves meanwhile (another tab, an editor).
     const now = await story()
@@ -124,7 +124,7 @@ describe('saving a story without losing a word', () => {
     const lock = expectOk(await editor.post(`/api/stories/${storyId}/lock`, { takeOver: true }))
     expect(lock.heldByMe).toBe(true)
     const { page } = session
-    await page.goto(`/stories/${storyId}/edit`)
+    await gotoReady(page, `/stories/${storyId}/edit`)
     const banner = page.getByTestId('lock-banner')
     await banner.waitFor()
     // Times read in the magazine's zone (a site setting an earlier test may have changed).

@@ -5,7 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { reportRound } from '#shared/dyno'
 import { SITE_TIME_ZONE, toZonedInput } from '#shared/utils/story-time'
-import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD, signedIn } from '../support/http'
 import { waitForMail } from '../support/mail'
 import { expectOk } from '../support/workspace'
@@ -35,7 +35,7 @@ describe('a story from the writer\'s first words to publication', () => {
 
   it('starts a story from the bench test on My stories', async () => {
     const { page } = writer
-    await page.goto(`/my-stories`)
+    await gotoReady(page, `/my-stories`)
     await page.getByTestId('story-create-bench-test').selectOption(String(bench.benchTestId))
     await page.getByTestId('story-create-headline').fill(HEADLINE)
     await page.getByTestId('story-create-submit').click()

@@ -4,7 +4,7 @@
 // in the notes. Each payload sets a marker or opens a dialog if it ever runs.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { expectOk } from '../support/workspace'
@@ -95,7 +95,7 @@ describe('script in a story or a note does not run', () => {
   it('the editor\'s live preview renders typed payloads as harmless text', async () => {
     const { page } = session
     const caught = await watchForScript(page)
-    await page.goto(`/stories/${storyId}/edit`)
+    await gotoReady(page, `/stories/${storyId}/edit`)
     await page.getByTestId('editor-body').fill(BODY)
     // The text is refused on save (shown beside the field) but never lost or run.
     await saveStateIs(page, 'invalid')
@@ -144,7 +144,7 @@ describe('script in a story or a note does not run', () => {
     expectOk(await editorApi.post(`/api/stories/${storyId}/notes`, { body: note, anchor: '<img src=x onerror="window.__xss=\'anchor\'">' }), 201)
     const { page } = session
     const caught = await watchForScript(page)
-    await page.goto(`/stories/${storyId}/edit`)
+    await gotoReady(page, `/stories/${storyId}/edit`)
     const thread = page.getByTestId('note-thread').first()
     await thread.waitFor()
     expect(await thread.getByTestId('note-body').textContent()).toContain('<script>window.__xss = "script"</script>')

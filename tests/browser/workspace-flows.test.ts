@@ -170,7 +170,7 @@ describe('workspace pages beyond the first import', () => {
 
     const operator = await openBrowser()
     try {
-      await operator.page.goto(new URL(url).pathname)
+      await gotoReady(operator.page, new URL(url).pathname)
       await expect(operator.page.getByTestId('upload-title').textContent()).resolves.toContain('My better title (invented)')
       await operator.page.getByTestId('import-file-input').setInputFiles({ name: 'cell2-pull.csv', mimeType: 'text/csv', buffer: Buffer.from(pull(78).csv) })
       await operator.page.getByTestId('upload-sent-received').waitFor({ timeout: 20_000 })

@@ -7,7 +7,7 @@ import {
 import { ANALYSIS_GRID } from '#shared/types/analysis'
 import { OKABE_ITO } from '#shared/utils/chart-options'
 import { formatReported } from '#shared/utils/figures'
-import { openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
 import { DEMO_PASSWORD } from '../support/http'
 
 // Two invented setups of an invented engine, one synthetic pull each
@@ -50,7 +50,7 @@ describe('a writer takes a bench test from nothing to compared curves', () => {
   afterAll(async () => { await browser?.close() })
 
   it('creates a bench test from the list page', async () => {
-    await page.goto('/bench-tests')
+    await gotoReady(page, '/bench-tests')
     const form = page.getByTestId('bench-test-create-form')
     await form.getByTestId('bench-test-title').fill(`Header sizes on an invented V8 ${Date.now()}`)
     await form.getByTestId('bench-test-part-type').selectOption('exhaust')

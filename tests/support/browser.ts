@@ -29,9 +29,13 @@ export async function openBrowser(viewport = { width: 1280, height: 900 }): Prom
   }
 }
 
-/** Signs in through the real form, the way a person does. */
+/**
+ * Signs in through the real form, the way a person does. Typing before Vue hydrates
+ * the form would be lost (hydration sets each v-model input back to its state), so
+ * every page a test types into is opened with gotoReady.
+ */
 export async function signInThroughPage(page: Page, email: string, password: string): Promise<void> {
-  await page.goto('/login')
+  await gotoReady(page, '/login')
   await page.getByTestId('login-email').fill(email)
   await page.getByTestId('login-password').fill(password)
   await page.getByTestId('login-submit').click()
