@@ -1,4 +1,5 @@
 import { startPhotoJobLoop } from '~~/server/services/photos/jobs'
+import { stopPhotoWorkers } from '~~/server/services/photos/pool'
 import { sweepPhotoStorage } from '~~/server/services/photos/sweep'
 // Every app server sizes photos (row locks keep each job on one) and sweeps
 // storage a little after start and then every few hours.
@@ -16,6 +17,7 @@ export default defineNitroPlugin((nitroApp) => {
 
   nitroApp.hooks.hook('close', () => {
     stopLoop()
+    stopPhotoWorkers()
     clearTimeout(first)
     clearInterval(every)
   })

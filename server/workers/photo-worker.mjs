@@ -1,7 +1,10 @@
-// Sizes one photo (see server/services/photos/pool.ts): decode, apply the camera's
-// orientation, flatten transparency, make the web sizes as JPEG. Runs one task
-// and ends. It runs as a short-lived child process (the default: its memory goes
-// back to the system when it exits) or as a worker thread (PHOTO_WORKER_MODE=thread).
+// Sizes photos (see server/services/photos/pool.ts): decode, apply the camera's
+// orientation, flatten transparency, make the web sizes as JPEG. As a child process
+// (the default) it sizes one photo after another until the server retires it (after
+// some photos, when idle, or when its memory stays high: the server decides), so
+// process start, jimp's loading and the JIT's warm-up are paid once for several
+// photos; its memory goes back to the system when it exits. As a worker thread
+// (PHOTO_WORKER_MODE=thread) it is ended after each photo.
 //
 // Plain ESM on purpose: the build copies this file into .output/server/workers/
 // (nuxt.config.ts) and it imports jimp and @jsquash/webp from the traced
@@ -151,12 +154,37 @@ async function sizePhoto(task) {
   return { ...full, variants }
 }
 
+/**
+ * The child's stdin carries the originals one after another, each exactly `length`
+ * bytes long (the server sends the next only after this one's answer); without a
+ * length the photo runs to the end of the stream, and that child takes no more.
+ */
+function stdinReader() {
+  let chunks = []
+  let have = 0
+  let ended = false
+  let wake
+  process.stdin.on('data', (chunk) => { chunks.push(chunk); have += chunk.length; wake?.() })
+  process.stdin.on('end', () => { ended = true; wake?.() })
+  return async (length) => {
+    while (!ended && !(length !== undefined && have >= length)) await new Promise((resolve) => { wake = resolve })
+    wake = undefined
+    const all = chunks.length === 1 ? chunks[0] : Buffer.concat(chunks)
+    const n = length === undefined ? all.length : Math.min(length, all.length)
+    const rest = all.subarray(n)
+    chunks = rest.length ? [rest] : []
+    have = rest.length
+    return all.subarray(0, n)
+  }
+}
+
 // The same messages either way: a worker thread's port, or a child's IPC channel.
 const channel = parentPort
-  ? { fault: workerData?.fault, receive: fn => parentPort.once('message', fn), send: (m, transfer) => parentPort.postMessage(m, transfer) }
-  : { fault: process.env.PHOTO_WORKER_FAULT, receive: fn => process.once('message', fn), send: m => process.send(m) }
+  ? { fault: workerData?.fault, receive: fn => parentPort.on('message', fn), send: (m, transfer) => parentPort.postMessage(m, transfer) }
+  : { fault: process.env.PHOTO_WORKER_FAULT, receive: fn => process.on('message', fn), send: m => process.send(m) }
 // A child whose server died stops too, instead of lingering with a photo half done.
 if (!parentPort) process.once('disconnect', () => process.exit(0))
+const readOriginal = parentPort ? undefined : stdinReader()
 
 channel.receive(async (task) => {
   // Test-only faults (PULLSHEET_TEST_HOOKS=1): a worker that hangs mid-job or dies on its first try.
@@ -166,11 +194,9 @@ channel.receive(async (task) => {
   }
   if (channel.fault === 'exit-first-try' && task.attempt === 1) process.exit(70)
   try {
-    if (!parentPort) {
+    if (readOriginal) {
       // A child gets the original on stdin, streamed from storage by the server.
-      const chunks = []
-      for await (const chunk of process.stdin) chunks.push(chunk)
-      const bytes = Buffer.concat(chunks)
+      const bytes = await readOriginal(task.length)
       if (task.length !== undefined && bytes.length !== task.length) {
         channel.send({ ok: false, permanent: false, message: `The original arrived incomplete from storage (${bytes.length} of ${task.length} bytes). It will be tried again.` })
         return
@@ -178,8 +204,12 @@ channel.receive(async (task) => {
       task.bytes = toArrayBuffer(bytes)
     }
     const result = await sizePhoto(task)
+    task.bytes = undefined
     // Peak memory of this process: meaningful for a child, the whole server's for a thread.
     result.maxRssMb = Math.round(process.resourceUsage().maxRSS / 1024)
+    // What a child keeps now, so the server can retire one that stays large.
+    result.rssMb = Math.round(process.memoryUsage.rss() / 1048576)
+    result.workerPid = process.pid
     channel.send({ ok: true, result }, result.variants.map(v => v.bytes))
   }
   catch (error) {

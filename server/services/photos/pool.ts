@@ -1,18 +1,24 @@
-import { fork } from 'node:child_process'
+import { type ChildProcess, fork } from 'node:child_process'
 import { setPriority } from 'node:os'
 import type { Readable } from 'node:stream'
 import { Worker } from 'node:worker_threads'
 import { findWorkerFile } from '../../utils/worker-files'
 
 // Photo decoding blocks a thread for seconds and takes about 900 MB for 24 MP, so
-// it runs off the server's event loop, one or two photos at a time, each worker
-// ended after its photo. The worker is server/workers/photo-worker.mjs.
+// it runs off the server's event loop, one or two photos at a time. The worker is
+// server/workers/photo-worker.mjs.
 //
-// By default each photo gets a short-lived child process rather than a worker
-// thread. Measured (docs/bench/photos.md): a thread's allocations stay in the
-// server's malloc arenas after it ends (RSS 1.3 GB after ten 24 MP photos), while
-// a child's memory goes back to the system when it exits. PHOTO_WORKER_MODE=thread
-// keeps the thread variant (same file, same messages) for comparison.
+// By default photos are sized in child processes rather than worker threads.
+// Measured (docs/bench/photos.md): a thread's allocations stay in the server's
+// malloc arenas after it ends (RSS 1.3 GB after ten 24 MP photos), while a child's
+// memory goes back to the system when it exits. A child sizes several photos in a
+// row (process start, jimp's loading and the JIT's warm-up were most of a small
+// photo's time) and is retired, so its memory is bounded: after
+// PHOTO_WORKER_TASKS photos (20), when idle for PHOTO_WORKER_IDLE_SECONDS (10),
+// and at once when its RSS after a photo is over PHOTO_WORKER_KEEP_MB (300; a
+// 24 MP photo leaves more, so such a child is used once). At most one child per
+// slot exists. PHOTO_WORKER_MODE=thread keeps the thread variant (same file, same
+// messages, a fresh thread per photo) for comparison.
 
 export interface PhotoTask {
   /**
@@ -38,6 +44,10 @@ export interface SizedPhoto {
   variants: { width: number, height: number, bytes: ArrayBuffer }[]
   /** The worker's peak memory (a child's own; for a thread, the whole server's). */
   maxRssMb?: number
+  /** The worker's memory after this photo (a child's own; for a thread, the whole server's). */
+  rssMb?: number
+  /** The process that sized it (a child's own pid; the server's for a thread). */
+  workerPid?: number
 }
 
 /** A worker's failure; permanent when trying again cannot help (the file does not decode). */
@@ -96,44 +106,128 @@ const timedOut = (timeoutMs: number) => new PhotoTaskError(`Processing took long
 const answered = (answer: WorkerAnswer) => answer.ok ? answer.result : Promise.reject(new PhotoTaskError(answer.message, answer.permanent))
 const stopped = (code: number | null, signal?: string | null) => new PhotoTaskError(`The photo worker stopped unexpectedly (${signal ? `signal ${signal}` : `exit code ${code}`}).`, false)
 
+/** A child worker and what it has done; `clean` while its stdin is ready for the next original. */
+interface PhotoChild { proc: ChildProcess, tasks: number, clean: boolean, idleTimer?: NodeJS.Timeout }
+
+const idleChildren: PhotoChild[] = []
+
+const childLimits = () => ({
+  tasks: Math.max(1, Number(process.env.PHOTO_WORKER_TASKS ?? 20) || 1),
+  idleMs: Math.max(0, Number(process.env.PHOTO_WORKER_IDLE_SECONDS ?? 10) * 1000 || 0),
+  keepMb: Math.max(0, Number(process.env.PHOTO_WORKER_KEEP_MB ?? 300) || 0),
+})
+
+function forkChild(): PhotoChild {
+  const proc = fork(photoWorkerFile(), [], {
+    // Structured clone over the pipe, so ArrayBuffers travel as bytes, not JSON.
+    serialization: 'advanced',
+    execArgv: ['--max-old-space-size=1024'],
+    env: { ...process.env, PHOTO_WORKER_FAULT: testFault() ?? '' },
+    stdio: ['pipe', 'inherit', 'inherit', 'ipc'],
+  })
+  // Sizing can wait; answering readers cannot: on a small machine the scheduler
+  // should prefer the server's own thread (nice 10 by default).
+  try { if (proc.pid) setPriority(proc.pid, Number(process.env.PHOTO_WORKER_NICE ?? 10)) }
+  catch { /* not permitted here: runs at normal priority */ }
+  // An idle child never keeps the server (or a test run) alive; a running task's timer does.
+  proc.unref()
+  proc.channel?.unref()
+  ;(proc.stdin as { unref?: () => void } | null)?.unref?.()
+  proc.stdin!.on('error', () => { /* the child ended first: its exit says why */ })
+  proc.on('error', () => { /* a task's own listener reports it; between tasks the exit retires the child */ })
+  const child: PhotoChild = { proc, tasks: 0, clean: true }
+  proc.once('exit', () => {
+    child.clean = false
+    const i = idleChildren.indexOf(child)
+    if (i >= 0) idleChildren.splice(i, 1)
+    clearTimeout(child.idleTimer)
+  })
+  return child
+}
+
+function retire(child: PhotoChild): void {
+  child.clean = false
+  clearTimeout(child.idleTimer)
+  const i = idleChildren.indexOf(child)
+  if (i >= 0) idleChildren.splice(i, 1)
+  child.proc.kill('SIGKILL')
+}
+
+/** After a task: the child waits for the next photo, or goes. */
+function release(child: PhotoChild, rssMb: number | undefined): void {
+  const limits = childLimits()
+  if (!child.clean || child.tasks >= limits.tasks || rssMb === undefined || rssMb > limits.keepMb || limits.idleMs === 0) {
+    retire(child)
+    return
+  }
+  child.idleTimer = setTimeout(() => retire(child), limits.idleMs)
+  child.idleTimer.unref()
+  idleChildren.push(child)
+}
+
+/** Ends the idle children now (server shutdown, tests). Running ones end after their photo. */
+export function stopPhotoWorkers(): void {
+  for (const child of [...idleChildren]) retire(child)
+}
+
 function runInChild(task: PhotoTask, timeoutMs: number): Promise<SizedPhoto> {
-  return new Promise((resolve, reject) => {
-    const child = fork(photoWorkerFile(), [], {
-      // Structured clone over the pipe, so ArrayBuffers travel as bytes, not JSON.
-      serialization: 'advanced',
-      execArgv: ['--max-old-space-size=1024'],
-      env: { ...process.env, PHOTO_WORKER_FAULT: testFault() ?? '' },
-      stdio: ['pipe', 'inherit', 'inherit', 'ipc'],
-    })
-    // Sizing can wait; answering readers cannot: on a small machine the scheduler
-    // should prefer the server's own thread (nice 10 by default).
-    try { if (child.pid) setPriority(child.pid, Number(process.env.PHOTO_WORKER_NICE ?? 10)) }
-    catch { /* not permitted here: runs at normal priority */ }
+  const child = idleChildren.pop() ?? forkChild()
+  clearTimeout(child.idleTimer)
+  child.tasks++
+  const { proc } = child
+  let rssMb: number | undefined
+  return new Promise<SizedPhoto>((resolve, reject) => {
     let settled = false
-    const settle = (outcome: () => void) => {
+    const settle = (outcome: () => void, keep = false) => {
       if (settled) return
       settled = true
       clearTimeout(timer)
-      child.kill('SIGKILL')
+      proc.off('message', onMessage)
+      proc.off('error', onError)
+      proc.off('exit', onExit)
+      if (!keep) child.clean = false
       // A storage stream left paused would hold its connection open.
-      if (!(task.bytes instanceof ArrayBuffer)) task.bytes.destroy()
+      if (!(task.bytes instanceof ArrayBuffer)) {
+        task.bytes.unpipe(proc.stdin!)
+        task.bytes.destroy()
+      }
       outcome()
     }
     const timer = setTimeout(() => settle(() => reject(timedOut(timeoutMs))), timeoutMs)
-    child.once('message', (answer: WorkerAnswer) => settle(() => resolve(answered(answer))))
-    child.once('error', error => settle(() => reject(new PhotoTaskError(`The photo worker could not start: ${error.message}`, false))))
-    child.once('exit', (code, signal) => settle(() => reject(stopped(code, signal))))
-    child.stdin!.on('error', () => { /* the child ended first: its exit says why */ })
+    // The child keeps its stdin in step only when it read exactly the bytes it was sent.
+    let sent = 0
+    let framed = task.length !== undefined
+    const onMessage = (answer: WorkerAnswer) => {
+      if (answer.ok) rssMb = answer.result.rssMb
+      settle(() => resolve(answered(answer)), framed && (answer.ok || answer.permanent))
+    }
+    const onError = (error: Error) => settle(() => reject(new PhotoTaskError(`The photo worker could not start: ${error.message}`, false)))
+    const onExit = (code: number | null, signal: string | null) => settle(() => reject(stopped(code, signal)))
+    proc.on('message', onMessage)
+    proc.once('error', onError)
+    proc.once('exit', onExit)
     const { bytes, ...rest } = task
-    child.send(rest)
+    const length = bytes instanceof ArrayBuffer ? bytes.byteLength : task.length
+    proc.send({ ...rest, length })
     if (bytes instanceof ArrayBuffer) {
-      child.stdin!.end(Buffer.from(bytes))
+      framed = true
+      proc.stdin!.write(Buffer.from(bytes))
+    }
+    else if (!framed) {
+      bytes.pipe(proc.stdin!) // no length: the end of stdin ends the photo, and this child's use
     }
     else {
+      bytes.on('data', (chunk: Buffer) => {
+        sent += chunk.length
+        if (sent > length!) framed = false
+      })
+      // A stream cut short (or overlong) ends the child's stdin: it reports what
+      // arrived, and takes no further photo.
+      bytes.once('end', () => { if (sent !== length) { framed = false; proc.stdin!.end() } })
       bytes.once('error', () => settle(() => reject(new PhotoTaskError('Reading the original from storage broke off. It will be tried again.', false))))
-      bytes.pipe(child.stdin!)
+      bytes.pipe(proc.stdin!, { end: false })
     }
-  })
+  }).finally(() => release(child, rssMb))
 }
 
 async function collect(stream: Readable): Promise<ArrayBuffer> {
@@ -168,7 +262,7 @@ function runInThread(task: PhotoTask & { bytes: ArrayBuffer }, timeoutMs: number
   })
 }
 
-/** Sizes one photo in a fresh worker (child process or thread), waiting for a free slot first. */
+/** Sizes one photo in a child worker (a waiting one, or a new one) or a fresh thread, waiting for a free slot first. */
 export async function runPhotoTask(task: PhotoTask, timeoutMs = Number(process.env.PHOTO_TASK_TIMEOUT_SECONDS ?? 300) * 1000): Promise<SizedPhoto> {
   await takeSlot()
   try {

@@ -1,7 +1,7 @@
 import { Readable } from 'node:stream'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PHOTO_JPEG_QUALITY, PHOTO_WIDTHS } from '#shared/types/photos'
-import { PhotoTaskError, runPhotoTask, type SizedPhoto } from '../../../server/services/photos/pool'
+import { PhotoTaskError, runPhotoTask, type SizedPhoto, stopPhotoWorkers } from '../../../server/services/photos/pool'
 import { carriesExif, withExif } from '../../support/exif'
 import { decode, makeJpeg, makePng, pixel, type Paint } from '../../support/photos'
 
@@ -90,6 +90,9 @@ describe.each(['process', 'thread'])('photo worker as a %s', (mode) => {
     if (mode === 'process') {
       const cut = runPhotoTask({ ...task, bytes: Readable.from(chunks.slice(0, 2)), length: jpeg.length })
       await expect(cut).rejects.toMatchObject({ permanent: false, message: expect.stringMatching(/arrived incomplete from storage/) })
+      // The child that got a cut stream is not asked again: the next photo is whole.
+      const after = await runPhotoTask({ ...task, bytes: Readable.from(chunks), length: jpeg.length })
+      expect(after.variants.map(v => [v.width, v.height])).toEqual([[480, 206], [700, 300]])
     }
   })
 
@@ -102,4 +105,59 @@ describe.each(['process', 'thread'])('photo worker as a %s', (mode) => {
     expect(answer.permanent).toBe(true)
     expect(answer.message).toMatch(/could not be decoded/)
   })
+})
+
+describe('child workers sizing photos in a row', () => {
+  afterAll(() => {
+    delete process.env.PHOTO_WORKER_TASKS
+    delete process.env.PHOTO_WORKER_IDLE_SECONDS
+    delete process.env.PHOTO_WORKER_KEEP_MB
+    stopPhotoWorkers()
+  })
+  const pidOf = async (bytes: Uint8Array, w: number, h: number) => (await size(bytes, 'image/jpeg', w, h)).result!.workerPid
+
+  it('keeps one child for several photos, each streamed whole, and retires it after PHOTO_WORKER_TASKS', async () => {
+    process.env.PHOTO_WORKER_TASKS = '3'
+    stopPhotoWorkers()
+    const photos = [await makeJpeg(700, 300), await makeJpeg(500, 400), await makeJpeg(640, 480), await makeJpeg(300, 200)]
+    const sized = []
+    for (const jpeg of photos) {
+      const task = { mime: 'image/jpeg', orientation: 1, widths: PHOTO_WIDTHS, quality: PHOTO_JPEG_QUALITY, attempt: 1 }
+      // Odd-sized pieces, so a photo's bytes never line up with the pipe's chunks.
+      const chunks = Array.from({ length: Math.ceil(jpeg.length / 3001) }, (_, i) => jpeg.subarray(i * 3001, (i + 1) * 3001))
+      const [width, height] = [[700, 300], [500, 400], [640, 480], [300, 200]][sized.length]!
+      sized.push(await runPhotoTask({ ...task, width: width!, height: height!, bytes: Readable.from(chunks), length: jpeg.length }))
+    }
+    expect(sized.map(s => [s.width, s.height])).toEqual([[700, 300], [500, 400], [640, 480], [300, 200]])
+    const pids = sized.map(s => s.workerPid)
+    expect(pids[1]).toBe(pids[0])
+    expect(pids[2]).toBe(pids[0])
+    expect(pids[3]).not.toBe(pids[0])
+    // Every size of the third photo decodes to its own dimensions: nothing of the photos before it was mixed in.
+    for (const v of sized[2]!.variants) {
+      const image = await decode(new Uint8Array(v.bytes))
+      expect([image.width, image.height]).toEqual([v.width, v.height])
+    }
+  }, 60_000)
+
+  it('retires a child that stays idle longer than PHOTO_WORKER_IDLE_SECONDS', async () => {
+    process.env.PHOTO_WORKER_TASKS = '20'
+    process.env.PHOTO_WORKER_IDLE_SECONDS = '0.3'
+    stopPhotoWorkers()
+    const jpeg = await makeJpeg(300, 200)
+    const first = await pidOf(jpeg, 300, 200)
+    expect(await pidOf(jpeg, 300, 200)).toBe(first) // at once: the same child
+    await new Promise(r => setTimeout(r, 800))
+    expect(await pidOf(jpeg, 300, 200)).not.toBe(first)
+  }, 60_000)
+
+  it('retires a child whose memory after a photo is over PHOTO_WORKER_KEEP_MB', async () => {
+    process.env.PHOTO_WORKER_IDLE_SECONDS = '10'
+    process.env.PHOTO_WORKER_KEEP_MB = '1'
+    stopPhotoWorkers()
+    const jpeg = await makeJpeg(300, 200)
+    const first = await size(jpeg, 'image/jpeg', 300, 200)
+    expect(first.result!.rssMb).toBeGreaterThan(1)
+    expect(await pidOf(jpeg, 300, 200)).not.toBe(first.result!.workerPid)
+  }, 60_000)
 })
