@@ -1,8 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { Photo } from '#shared/types/photos'
 import { closeTestDb, testDb } from '../support/db'
 import { Client, signedIn, uniqueEmail } from '../support/http'
-import { bucketKeys, createBenchTest, fetchImage, makeJpeg, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+import { bucketKeys, createBenchTest, fetchImage, makeJpeg, photoTestTimeouts, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(1))
 
 // Photos are reached through their bench test: writers their own, editors and
 // admins all. Anyone else learns nothing (404). No photo is public until stories

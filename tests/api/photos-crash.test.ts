@@ -1,12 +1,15 @@
 import type { ChildProcess } from 'node:child_process'
-import { afterAll, afterEach, describe, expect, it } from 'vitest'
+import { afterAll, afterEach, describe, expect, it, vi } from 'vitest'
 import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
 import { closeTestDb, testDb } from '../support/db'
 import { Client, DEMO_PASSWORD, signedIn, spareAppPort, testServerExtra } from '../support/http'
-import { createBenchTest, makeJpeg, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+import { createBenchTest, makeJpeg, photoTestTimeouts, uploadPhoto, userId, waitForPhoto } from '../support/photos'
 import { sleep, until } from '../support/wait'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(1))
 
 // Servers of their own, on a queue of their own (PHOTO_QUEUE), so the main test
 // server never takes these jobs; a short lease so a dead server's job comes back fast.
@@ -57,7 +60,7 @@ describe('a crash mid-job', () => {
 
     await killGroup(doomed.child, 'SIGKILL')
     await server(spareAppPort(12), { PHOTO_QUEUE: queue })
-    const ready = await waitForPhoto(desk, bench, photoId, p => p.status === 'ready', 40_000)
+    const ready = await waitForPhoto(desk, bench, photoId, p => p.status === 'ready')
     expect(ready.variants.map(v => v.width)).toEqual([480, 960, 1000])
     // The photo row says ready a statement before the job row says done: wait for the job.
     const done = await until('the job to be done', async () => {
@@ -65,7 +68,7 @@ describe('a crash mid-job', () => {
       return job?.status === 'done' ? job : undefined
     })
     expect(done).toMatchObject({ status: 'done', attempts: 2 })
-  }, 90_000)
+  })
 
   it('a worker thread that dies mid-job: the job is tried again and succeeds', async () => {
     const queue = `exit-${Date.now().toString(36)}`
@@ -75,7 +78,7 @@ describe('a crash mid-job', () => {
 
     const flaky = await server(spareAppPort(13), { PHOTO_QUEUE: queue, PHOTO_TEST_FAULT: 'exit-first-try', PHOTO_RETRY_DELAY_SECONDS: '1' })
     const res = await uploadPhoto(flaky.client, bench, await makeJpeg(800, 500), 'worker-dies.jpg')
-    const ready = await waitForPhoto(desk, bench, res.body.photo.id, p => p.status === 'ready', 40_000)
+    const ready = await waitForPhoto(desk, bench, res.body.photo.id, p => p.status === 'ready')
     expect(ready.variants.map(v => v.width)).toEqual([480, 800])
     const job = await until('the job to be done', async () => {
       const row = await jobOf(kind, ready.id)
@@ -83,5 +86,5 @@ describe('a crash mid-job', () => {
     })
     expect(job).toMatchObject({ status: 'done', attempts: 2 })
     expect(job.last_error).toMatch(/stopped unexpectedly \(exit code 70\)/)
-  }, 90_000)
+  })
 })

@@ -1,10 +1,13 @@
 // A photo becomes public when a published story uses it, and only then.
-import { afterAll, describe, expect, it } from 'vitest'
+import { afterAll, describe, expect, it, vi } from 'vitest'
 import { Client, signedIn } from '../support/http'
 import { closeTestDb } from '../support/db'
 import { DEMO, expectOk } from '../support/workspace'
-import { fetchImage, makeJpeg, uploadPhoto, waitForPhoto } from '../support/photos'
+import { fetchImage, makeJpeg, photoTestTimeouts, uploadPhoto, waitForPhoto } from '../support/photos'
 import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(1))
 
 afterAll(closeTestDb)
 

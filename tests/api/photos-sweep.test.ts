@@ -1,7 +1,10 @@
-import { afterAll, describe, expect, it } from 'vitest'
+import { afterAll, describe, expect, it, vi } from 'vitest'
 import { closeTestDb, testDb } from '../support/db'
 import { signedIn } from '../support/http'
-import { bucketKeys, createBenchTest, deleteObject, makeJpeg, replaceObject, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+import { bucketKeys, createBenchTest, deleteObject, makeJpeg, photoTestTimeouts, replaceObject, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(4))
 
 afterAll(closeTestDb)
 

@@ -1,10 +1,13 @@
 import { createHash } from 'node:crypto'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import type { Photo } from '#shared/types/photos'
 import { closeTestDb, testDb } from '../support/db'
 import { carriesExif, jpegSegments, withExif } from '../support/exif'
 import { type Client, signedIn } from '../support/http'
-import { bucketKeys, createBenchTest, decode, fetchImage, makeJpeg, makePng, makeWebp, pixel, replaceObject, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+import { bucketKeys, createBenchTest, decode, fetchImage, makeJpeg, makePng, makeWebp, photoTestTimeouts, pixel, replaceObject, uploadPhoto, userId, waitForPhoto } from '../support/photos'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(2))
 
 // Against the built server, the real MariaDB and the real s3rver (scripts/test.ts).
 let writer: Client
@@ -47,7 +50,7 @@ describe('upload and sizing', () => {
     expect(row.original_key).not.toContain('install-overview') // keys never come from the name
     const keys = await bucketKeys(`${row.storage_prefix}/`)
     expect(keys.sort()).toEqual([`${row.storage_prefix}/original`, ...[1600, 2400, 480, 960].map(w => `${row.storage_prefix}/w${w}.jpg`)].sort())
-  }, 60_000)
+  })
 
   it('takes PNG and WebP too, sized to JPEG', async () => {
     for (const [bytes, name, mime] of [[await makePng(700, 500), 'gasket.png', 'image/png'], [await makeWebp(700, 500), 'headers.webp', 'image/webp']] as const) {

@@ -1,5 +1,5 @@
 // Notes, preview links, figures and the number check over HTTP.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { reportRound } from '#shared/dyno'
 import { inlineFigureValue } from '#shared/stories/figure-values'
 import { agrees, figureCandidates } from '#shared/utils/number-check'
@@ -7,7 +7,10 @@ import { Client, signedIn } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO, expectOk, newWriter } from '../support/workspace'
 import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
-import { makeJpeg, uploadPhoto, waitForPhoto } from '../support/photos'
+import { makeJpeg, photoTestTimeouts, uploadPhoto, waitForPhoto } from '../support/photos'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(2))
 
 afterAll(closeTestDb)
 

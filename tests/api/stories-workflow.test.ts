@@ -1,7 +1,7 @@
 // The workflow table enforced on the server: every role x state x action generated
 // from shared/types/story-workflow.ts; allowed moves succeed with an audit row, a
 // state revision and mail rows; all others are refused (403 role, 409 state).
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { STORY_STATE_IDS, STORY_TRANSITIONS, type StoryAction, type StoryState } from '#shared/types/story-workflow'
 import { decideTransition } from '#shared/stories/workflow'
 import type { Role } from '#shared/types/roles'
@@ -9,7 +9,10 @@ import { signedIn, type Client } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { DEMO, expectOk, newWriter } from '../support/workspace'
 import { createStory, storyBench, storyBody, transition, type StoryBench } from '../support/stories'
-import { makeJpeg, uploadPhoto, waitForPhoto } from '../support/photos'
+import { makeJpeg, photoTestTimeouts, uploadPhoto, waitForPhoto } from '../support/photos'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(1))
 
 afterAll(closeTestDb)
 

@@ -1,13 +1,16 @@
 // Fault drills with the real services: the storage endpoint killed under an upload,
 // the SMTP server killed while changes that send mail go on. Each drill restarts
 // what it stopped, so the main test server and the services stay healthy.
-import { afterAll, describe, expect, it } from 'vitest'
+import { afterAll, describe, expect, it, vi } from 'vitest'
 import { Client, signedIn, uniqueEmail } from '../support/http'
 import { closeTestDb, testDb } from '../support/db'
 import { caughtMail, waitForMail } from '../support/mail'
-import { bucketKeys, makeJpeg, uploadPhoto, waitForPhoto } from '../support/photos'
+import { bucketKeys, makeJpeg, photoTestTimeouts, uploadPhoto, waitForPhoto } from '../support/photos'
 import { startService, stopService } from '../support/services-control'
 import { DEMO, createBenchTest, expectOk, newWriter } from '../support/workspace'
+
+// Waits for photo sizing: timeouts from the one bound for a loaded machine (tests/support/photos.ts).
+vi.setConfig(photoTestTimeouts(1))
 
 afterAll(async () => {
   await startService('storage')
@@ -51,7 +54,7 @@ describe('storage endpoint down', () => {
     }
     expect(ready.variants.length).toBeGreaterThan(0)
     for (const v of ready.variants) expect((await fetch(client.base + v.url, { headers: { cookie: client.cookie } })).status).toBe(200)
-  }, 90_000)
+  })
 })
 
 // A refused connection counts as "database down" only on the database's port

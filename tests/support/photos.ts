@@ -93,7 +93,22 @@ export async function uploadPhoto(client: Client, benchTestId: number, bytes: Ui
   }
 }
 
-export async function waitForPhoto(client: Client, benchTestId: number, photoId: number, until: (p: Photo) => boolean = p => p.status === 'ready' || p.status === 'failed', timeoutMs = 60_000): Promise<Photo> {
+/**
+ * How long a test gives one photo to be sized. The worker runs at nice 10, so on a
+ * 2-core machine shared with builds and other test runs (load average 17-24) a photo
+ * that takes a second or two on a quiet one has taken over a minute. Every file that
+ * waits for photos takes its timeouts from here (`photoTestTimeouts`), so a slow machine
+ * fails with the wait's own message (the photo's last state), never a bare vitest timeout.
+ */
+export const PHOTO_WAIT_MS = 150_000
+
+/** Test and hook timeouts for a file whose tests wait for up to `photos` photos one after another. */
+export function photoTestTimeouts(photos = 2): { testTimeout: number, hookTimeout: number } {
+  const ms = photos * PHOTO_WAIT_MS + 60_000
+  return { testTimeout: ms, hookTimeout: ms }
+}
+
+export async function waitForPhoto(client: Client, benchTestId: number, photoId: number, until: (p: Photo) => boolean = p => p.status === 'ready' || p.status === 'failed', timeoutMs = PHOTO_WAIT_MS): Promise<Photo> {
   const end = Date.now() + timeoutMs
   let last: Photo | undefined
   while (Date.now() < end) {
