@@ -123,7 +123,7 @@ describe('child workers sizing photos in a row', () => {
     process.env.PHOTO_WORKER_TASKS = '3'
     stopPhotoWorkers()
     const photos = [await makeJpeg(700, 300), await makeJpeg(500, 400), await makeJpeg(640, 480), await makeJpeg(300, 200)]
-    const sized = []
+    const sized: SizedPhoto[] = []
     for (const jpeg of photos) {
       const task = { mime: 'image/jpeg', orientation: 1, widths: PHOTO_WIDTHS, quality: PHOTO_JPEG_QUALITY, attempt: 1 }
       // Odd-sized pieces, so a photo's bytes never line up with the pipe's chunks.
