@@ -53,6 +53,8 @@ export default defineNuxtConfig({
       async compiled(nitro) {
         const { cp } = await import('node:fs/promises')
         await cp(`${nitro.options.rootDir}/server/workers`, `${nitro.options.output.serverDir}/workers`, { recursive: true })
+        // PULLSHEET_PROCESSES copies of the server on one port (node:cluster), beside index.mjs.
+        await cp(`${nitro.options.rootDir}/server/cluster.mjs`, `${nitro.options.output.serverDir}/cluster.mjs`)
         // Pull checks run in piscina worker threads (server/services/workspace/pull-pool.ts): the
         // worker is TypeScript with shared/dyno behind it, bundled into one plain file.
         const { build } = await import('esbuild')

@@ -11,9 +11,20 @@ import { Client, DEMO_PASSWORD } from '../tests/support/http'
 import { expectOk } from '../tests/support/workspace'
 import { createStory, storyBench, transition } from '../tests/support/stories'
 
-export interface ReaderFixture { base: string, slug: string, readerCookie: string, stop: () => Promise<void> }
+export interface ReaderFixture {
+  base: string
+  /** The app server's process count (PULLSHEET_PROCESSES, server/cluster.mjs). */
+  processes: number
+  /** A second app server of the same build on the same database, for a same-run comparison. */
+  other?: { base: string, processes: number }
+  slug: string
+  readerCookie: string
+  stop: () => Promise<void>
+}
 
-export async function readerFixture(): Promise<ReaderFixture> {
+/** `processes` for the app server; `otherProcesses` starts a second one beside it (port + 1). */
+export async function readerFixture(opts: { processes?: number, otherProcesses?: number } = {}): Promise<ReaderFixture> {
+  const processes = opts.processes ?? 1
   const env = localEnv('test')
   rmSync(env.dataDir, { recursive: true, force: true })
   const testEnv = localEnv('test')
@@ -22,9 +33,11 @@ export async function readerFixture(): Promise<ReaderFixture> {
   const services = await startServices(testEnv)
   await migrate(settings.DATABASE_URL!)
   await seed(settings.DATABASE_URL!)
-  const app = await startApp(testEnv, { MAIL_POLL_MS: '300' })
+  const apps = [await startApp(testEnv, { MAIL_POLL_MS: '300', PULLSHEET_PROCESSES: String(processes) })]
+  const otherPort = testEnv.app.port + 1
+  if (opts.otherProcesses) apps.push(await startApp(testEnv, { MAIL_POLL_MS: '300', PULLSHEET_PROCESSES: String(opts.otherProcesses) }, otherPort))
   const stop = async () => {
-    await killGroup(app)
+    for (const app of apps) await killGroup(app)
     await services.stop()
   }
   try {
@@ -50,7 +63,8 @@ export async function readerFixture(): Promise<ReaderFixture> {
     expectOk(await transition(editor, story.id, 'approve'))
     expectOk(await transition(editor, story.id, 'publish_now'))
     const reader = await signedIn('reader@example.com')
-    return { base: testEnv.app.baseUrl, slug: story.slug, readerCookie: reader.cookie, stop }
+    const other = opts.otherProcesses ? { base: `http://${testEnv.app.host}:${otherPort}`, processes: opts.otherProcesses } : undefined
+    return { base: testEnv.app.baseUrl, processes, other, slug: story.slug, readerCookie: reader.cookie, stop }
   }
   catch (e) {
     await stop()

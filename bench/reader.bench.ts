@@ -1,17 +1,20 @@
 // Reader benchmarks, run on demand (not a test), loopback only, bounded runs:
 //   flock /tmp/pullsheet-test.lock npx tsx bench/reader.bench.ts
-// Starts the test-profile app with a published three-graph story, then its own
+// Starts the test-profile app with a published three-graph story, in two app servers on
+// one database: one with a process per core (server/cluster.mjs; BENCH_PROCESSES to
+// choose) and one with a single process, for the same-run comparison. Then its own
 // nginx (Debian package) under .data/bench with two servers: the story page's bytes
 // as a static file (the yardstick), and the shipped cache (deploy/nginx/pullsheet.conf's
-// story location) in front of the app. Load comes from wrk (bench/wrk.ts), every
-// request asking for Brotli as browsers do, so every row moves the same bytes.
-// Measures, in one run:
+// story location) in front of the first app server. Load comes from wrk (bench/wrk.ts),
+// every request asking for Brotli as browsers do, so every row moves the same bytes.
+// Measures, in one run (rows 1 to 3 take turns, two rounds):
 //   1. nginx static file (the yardstick)                requests/s
 //      1a. with worker_processes auto (one per core, 2 here), as Debian ships it
-//      1b. with one worker: the same number of processes as the one Node process
-//   2. cached story page from Node alone                >= 0.85 of row 1 (both ratios printed)
-//   3. the same page through the shipped nginx config   >= 0.95 of row 1
+//      1b. with one worker: the same number of processes as one Node process
+//   2. cached story page from Node alone                >= 0.85 of 1a (each app server)
+//   3. the same page through the shipped nginx config   >= 0.95 of 1a
 //   4. uncached story page (a signed-in reader: never cached), p95 at 10 concurrent < 60 ms
+//      (each app server, taking turns)
 //   5. first-load JS of the story page                  < 120 KB gzip
 //   6. the story page on the wire                       <= 40 KB
 // `reader.bench.ts uncached` runs row 4 alone (no nginx), e.g. under a CPU profile.
@@ -32,13 +35,13 @@ const CACHE_PORT = 8462
 const STATIC_ONE_WORKER_PORT = 8463
 const dir = join(ROOT, '.data', 'bench', 'nginx')
 
-/** The yardstick with one worker: a second nginx, serving the same file the same way. */
-function oneWorkerConfig(): string {
+/** What both nginx instances share: the process settings, the static yardstick, the temp paths. */
+function nginxHead(name: string, workers: 'auto' | 1, staticPort: number): string {
   return `
 daemon off;
-worker_processes 1;
-pid ${dir}/nginx-one.pid;
-error_log ${dir}/error-one.log warn;
+worker_processes ${workers};
+pid ${dir}/${name}.pid;
+error_log ${dir}/${name}-error.log warn;
 events { worker_connections 4096; }
 http {
   access_log off;
@@ -51,11 +54,16 @@ http {
   uwsgi_temp_path ${dir}/tmp-uwsgi;
   scgi_temp_path ${dir}/tmp-scgi;
   server {
-    listen 127.0.0.1:${STATIC_ONE_WORKER_PORT};
+    listen 127.0.0.1:${staticPort};
     root ${dir}/static;
     default_type text/html;
     location = /story { add_header Content-Encoding br; add_header Vary Accept-Encoding; try_files /story.html.br =404; }
-  }
+  }`
+}
+
+/** The yardstick with one worker: a second nginx, serving the same file the same way. */
+function oneWorkerConfig(): string {
+  return `${nginxHead('nginx-one', 1, STATIC_ONE_WORKER_PORT)}
 }
 `
 }
@@ -65,31 +73,10 @@ function nginxConfig(appPort: number): string {
   const deploy = readFileSync(join(ROOT, 'deploy/nginx/pullsheet.conf'), 'utf8')
   const maps = [/map \$http_cookie[\s\S]*?\n\}/, /map \$http_accept_encoding[\s\S]*?\n\}/].map(m => m.exec(deploy)![0]).join('\n')
   const story = /( {4}location ~ \^\/\(stories[\s\S]*?\n {4}\})/.exec(deploy)![1]!
-  return `
-daemon off;
-worker_processes auto;
-pid ${dir}/nginx.pid;
-error_log ${dir}/error.log warn;
-events { worker_connections 4096; }
-http {
-  access_log off;
-  sendfile on;
-  tcp_nopush on;
-  keepalive_requests 100000;
-  client_body_temp_path ${dir}/tmp-body;
-  proxy_temp_path ${dir}/tmp-proxy;
-  fastcgi_temp_path ${dir}/tmp-fastcgi;
-  uwsgi_temp_path ${dir}/tmp-uwsgi;
-  scgi_temp_path ${dir}/tmp-scgi;
+  return `${nginxHead('nginx', 'auto', STATIC_PORT)}
   upstream pullsheet_app { server 127.0.0.1:${appPort}; keepalive 32; }
   proxy_cache_path ${dir}/cache levels=1:2 keys_zone=pullsheet_pages:50m max_size=1g inactive=1d use_temp_path=off;
   ${maps}
-  server {
-    listen 127.0.0.1:${STATIC_PORT};
-    root ${dir}/static;
-    default_type text/html;
-    location = /story { add_header Content-Encoding br; add_header Vary Accept-Encoding; try_files /story.html.br =404; }
-  }
   server {
     listen 127.0.0.1:${CACHE_PORT};
     proxy_http_version 1.1;
@@ -103,36 +90,43 @@ ${story}
 
 const BROTLI = { 'accept-encoding': 'gzip, deflate, br' }
 
-async function rps(url: string) {
-  return clean(url, await wrk(url, { connections: CONNECTIONS, seconds: SECONDS, headers: BROTLI }))
-}
-
-/** Each of two URLs in turn, twice, half the time each; requests/s over both halves, latency of the second. */
-async function alternating(first: string, second: string): Promise<[WrkResult, WrkResult]> {
-  const halves: [WrkResult[], WrkResult[]] = [[], []]
+/**
+ * The URLs in turn, twice, half the time each, so a change in the machine's other load
+ * during the run moves them all alike; requests/s over both halves, latency of the second.
+ */
+async function alternating(urls: string[], connections: number, headers: Record<string, string>): Promise<WrkResult[]> {
+  const halves: WrkResult[][] = urls.map(() => [])
   for (let round = 0; round < 2; round++) {
-    halves[0].push(clean(first, await wrk(first, { connections: CONNECTIONS, seconds: SECONDS / 2, headers: BROTLI })))
-    halves[1].push(clean(second, await wrk(second, { connections: CONNECTIONS, seconds: SECONDS / 2, headers: BROTLI })))
+    for (const [i, url] of urls.entries()) halves[i]!.push(clean(url, await wrk(url, { connections, seconds: SECONDS / 2, headers })))
   }
-  const both = ([a, b]: WrkResult[]): WrkResult => ({ ...b!, requests: a!.requests + b!.requests, perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond) })
-  return [both(halves[0]), both(halves[1])]
+  return halves.map(([a, b]) => ({ ...b!, requests: a!.requests + b!.requests, perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond) }))
 }
 
-async function uncachedRow(storyUrl: string, cookie: string) {
+async function checkUncached(url: string, cookie: string) {
+  const probe = await fetch(url, { headers: { cookie, ...BROTLI } })
+  if (probe.status !== 200 || probe.headers.get('x-page-cache') || !/private/.test(probe.headers.get('cache-control') ?? '')) throw new Error(`the signed-in page must be private and uncached: ${probe.status} ${probe.headers.get('x-page-cache')} ${probe.headers.get('cache-control')}`)
+}
+
+/** Row 4 on each app server (taking turns when there are two). */
+async function uncachedRows(servers: { base: string, processes: number }[], cookie: string) {
+  const urls = servers.map(s => `${s.base}/stories/${fixture.slug}`)
+  const headers = { cookie, ...BROTLI }
+  for (const url of urls) await checkUncached(url, cookie)
   // The server's first seconds of rendering are its JIT warming up; like rows 1 to 3
   // (whose first seconds are a small part of a far larger count) the row reports a
   // running server: the same load for WARMUP_SECONDS first, not counted.
-  const probe = await fetch(storyUrl, { headers: { cookie, ...BROTLI } })
-  if (probe.status !== 200 || probe.headers.get('x-page-cache') || !/private/.test(probe.headers.get('cache-control') ?? '')) throw new Error(`the signed-in page must be private and uncached: ${probe.status} ${probe.headers.get('x-page-cache')} ${probe.headers.get('cache-control')}`)
-  await wrk(storyUrl, { connections: 10, seconds: WARMUP_SECONDS, headers: { cookie, ...BROTLI } })
-  const u = clean('uncached', await wrk(storyUrl, { connections: 10, seconds: SECONDS, headers: { cookie, ...BROTLI } }))
-  console.log(`4. uncached, 3 graphs, 10 concurrent: p50 ${u.p50.toFixed(1)} ms, p95 ${u.p95.toFixed(1)} ms, p99 ${u.p99.toFixed(1)} ms (n = ${u.requests}, ${u.perSecond.toFixed(0)} req/s; target p95 < 60 ms)`)
+  for (const url of urls) await wrk(url, { connections: 10, seconds: WARMUP_SECONDS, headers })
+  const results = await alternating(urls, 10, headers)
+  for (const [i, u] of results.entries()) {
+    console.log(`4. uncached, 3 graphs, 10 concurrent, ${servers[i]!.processes} process(es): p50 ${u.p50.toFixed(1)} ms, p95 ${u.p95.toFixed(1)} ms, p99 ${u.p99.toFixed(1)} ms (n = ${u.requests}, ${u.perSecond.toFixed(0)} req/s; target p95 < 60 ms)`)
+  }
 }
 
+/** The bytes of one answer, on a connection of its own. */
 async function wireBytes(url: string, encoding: string): Promise<number> {
   const { request } = await import('node:http')
   return new Promise((resolve, reject) => {
-    request(url, { headers: { 'accept-encoding': encoding } }, (res) => {
+    request(url, { agent: false, headers: { 'accept-encoding': encoding } }, (res) => {
       let n = 0
       res.on('data', (chunk: Buffer) => { n += chunk.byteLength })
       res.on('end', () => resolve(n))
@@ -140,10 +134,14 @@ async function wireBytes(url: string, encoding: string): Promise<number> {
   })
 }
 
-const fixture = await readerFixture()
+// The app as README recommends running it (one process per core), and one process
+// beside it on the same database for the same-run comparison (BENCH_PROCESSES=1: one only).
+const processes = Number(process.env.BENCH_PROCESSES ?? os.availableParallelism())
+const fixture = await readerFixture({ processes, otherProcesses: processes > 1 ? 1 : undefined })
+const servers = [{ base: fixture.base, processes: fixture.processes }, ...(fixture.other ? [fixture.other] : [])]
 if (process.argv[2] === 'uncached') {
   try {
-    await uncachedRow(`${fixture.base}/stories/${fixture.slug}`, fixture.readerCookie)
+    await uncachedRows(servers, fixture.readerCookie)
   }
   finally {
     await fixture.stop()
@@ -183,22 +181,30 @@ try {
   const edgeUrl = `http://127.0.0.1:${CACHE_PORT}/stories/${fixture.slug}`
   await fetch(edgeUrl, { headers: BROTLI })
   const edge = await fetch(edgeUrl, { headers: BROTLI })
+  const nodeUrls = servers.map(s => `${s.base}/stories/${fixture.slug}`)
+  for (const url of nodeUrls) {
+    // Every process of a server fills its own page cache on its first request: new
+    // connections, which the cluster hands to its processes in turn (fetch would keep one).
+    for (let i = 0; i < 8; i++) await wireBytes(url, 'br')
+  }
   console.log(`nginx cache status on the second request: ${edge.headers.get('x-edge-cache')}; node page cache: ${(await fetch(storyUrl, { headers: BROTLI })).headers.get('x-page-cache')}`)
   const wire = { br: await wireBytes(storyUrl, 'br'), gzip: await wireBytes(storyUrl, 'gzip'), none: await wireBytes(storyUrl, 'identity') }
 
-  console.log(`${os.cpus().length} cores, ${os.cpus()[0]?.model}; load average ${os.loadavg().map(l => l.toFixed(1)).join(' ')}; wrk ${CONNECTIONS} connections, 2 threads, ${SECONDS} s each, Brotli bytes (${(brotli.byteLength / 1024).toFixed(1)} KB) on every row`)
-  const stat = await rps(`http://127.0.0.1:${STATIC_PORT}/story`)
-  // Node and its one-worker yardstick take turns (two halves each), so a change in the
-  // machine's other load during the run moves both alike.
-  const [statOne, node] = await alternating(`http://127.0.0.1:${STATIC_ONE_WORKER_PORT}/story`, storyUrl)
+  console.log(`${os.cpus().length} cores, ${os.cpus()[0]?.model}; load average ${os.loadavg().map(l => l.toFixed(1)).join(' ')}; wrk ${CONNECTIONS} connections, 2 threads, 2 x ${SECONDS / 2} s each in turns, Brotli bytes (${(brotli.byteLength / 1024).toFixed(1)} KB) on every row`)
+  // Every row of the cached page takes its turn in each of two rounds.
+  const staticUrl = `http://127.0.0.1:${STATIC_PORT}/story`
+  const staticOneUrl = `http://127.0.0.1:${STATIC_ONE_WORKER_PORT}/story`
+  const [stat, statOne, cached, ...nodes] = await alternating([staticUrl, staticOneUrl, edgeUrl, ...nodeUrls], CONNECTIONS, BROTLI)
   const fmt = (r: { perSecond: number, p50: number, p99: number, bytesPerRequest: number }) => `(p50 ${r.p50.toFixed(2)} ms, p99 ${r.p99.toFixed(2)} ms, ${(r.bytesPerRequest / 1024).toFixed(1)} KB/answer)`
   const rate = (r: { perSecond: number }) => `${r.perSecond.toFixed(0).padStart(6)} req/s`
-  console.log(`1a. nginx static, ${os.cpus().length} workers:  ${rate(stat)} ${fmt(stat)}`)
-  console.log(`1b. nginx static, 1 worker:   ${rate(statOne)} ${fmt(statOne)}`)
-  console.log(`2.  Node page cache, 1 process: ${rate(node)} = ${(node.perSecond / statOne.perSecond).toFixed(2)} of 1b (same process count), ${(node.perSecond / stat.perSecond).toFixed(2)} of 1a (target >= 0.85) ${fmt(node)}`)
-  const cached = await rps(edgeUrl)
-  console.log(`3.  shipped nginx before Node: ${rate(cached)} = ${(cached.perSecond / stat.perSecond).toFixed(2)} of 1a (target >= 0.95) ${fmt(cached)}`)
-  await uncachedRow(storyUrl, fixture.readerCookie)
+  console.log(`1a. nginx static, ${os.cpus().length} workers:  ${rate(stat!)} ${fmt(stat!)}`)
+  console.log(`1b. nginx static, 1 worker:   ${rate(statOne!)} ${fmt(statOne!)}`)
+  for (const [i, node] of nodes.entries()) {
+    console.log(`2.  Node page cache, ${servers[i]!.processes} process(es): ${rate(node)} = ${(node.perSecond / stat!.perSecond).toFixed(2)} of 1a (target >= 0.85), ${(node.perSecond / statOne!.perSecond).toFixed(2)} of 1b ${fmt(node)}`)
+  }
+  console.log(`3.  shipped nginx before Node (${fixture.processes} process(es)): ${rate(cached!)} = ${(cached!.perSecond / stat!.perSecond).toFixed(2)} of 1a (target >= 0.95) ${fmt(cached!)}`)
+  await uncachedRows(servers, fixture.readerCookie)
+  console.log(`load average after the run ${os.loadavg().map(l => l.toFixed(1)).join(' ')}`)
   const js = await firstLoad(storyUrl)
   console.log(`5. first-load JS: ${js.files.length} files, ${(js.totalGzip / 1024).toFixed(1)} KB gzip (target < 120 KB)`)
   console.log(`6. story page on the wire: ${(wire.br / 1024).toFixed(1)} KB Brotli, ${(wire.gzip / 1024).toFixed(1)} KB gzip, ${(wire.none / 1024).toFixed(1)} KB uncompressed (target <= 40 KB)`)

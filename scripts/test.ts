@@ -58,7 +58,9 @@ try {
     await migrate(settings.DATABASE_URL!)
     process.env.PULLSHEET_DEMO_STORIES = '0' // tests make their own stories
     await seed(settings.DATABASE_URL!)
-    const serverExtra = { MAIL_POLL_MS: '300', MAIL_RETRY_BASE_SECONDS: '1', TRUST_PROXY: '1', HOUSEKEEPING_DELAY_SECONDS: '2', HOUSEKEEPING_MINUTES: '0.05' }
+    // One process unless PULLSHEET_PROCESSES says otherwise: some tests read one process's
+    // counters (GET /api/admin/runtime); tests/api/zz-processes.test.ts runs two.
+    const serverExtra = { MAIL_POLL_MS: '300', MAIL_RETRY_BASE_SECONDS: '1', TRUST_PROXY: '1', HOUSEKEEPING_DELAY_SECONDS: '2', HOUSEKEEPING_MINUTES: '0.05', PULLSHEET_PROCESSES: process.env.PULLSHEET_PROCESSES ?? '1' }
     app = await startApp(testEnv, serverExtra)
     const testVars = {
       ...settings,

@@ -26,7 +26,7 @@ function sourceHash(): string {
 
 export async function buildIfNeeded(): Promise<void> {
   const hash = sourceHash()
-  if (existsSync(STAMP) && readFileSync(STAMP, 'utf8') === hash && existsSync(join(ROOT, '.output', 'server', 'index.mjs'))) {
+  if (existsSync(STAMP) && readFileSync(STAMP, 'utf8') === hash && existsSync(join(ROOT, '.output', 'server', 'cluster.mjs'))) {
     console.log('build: up to date')
     return
   }

@@ -53,6 +53,8 @@ export default defineNitroPlugin((nitroApp) => {
     setPageStore(new RedisPageStore(storage))
   }
 
+  onSiblingDrop('story-cache', slug => dropStoryCacheHere(slug))
+
   nitroApp.hooks.hook('beforeResponse', async (event, response) => {
     if (event.context.pageCacheServed) return
     const res = event.node.res
@@ -108,7 +110,8 @@ export default defineNitroPlugin((nitroApp) => {
     try {
       const row = await useDb()('stories').first(useDb().raw('COUNT(*) AS n, MAX(updated_at) AS changed, MAX(published_at) AS published')) as { n: number, changed: Date | null, published: Date | null } | undefined
       const next = JSON.stringify(row ?? null)
-      if (fingerprint !== null && next !== fingerprint) await invalidateStoryCache()
+      // Every process polls, so each drops only its own copy.
+      if (fingerprint !== null && next !== fingerprint) await dropStoryCacheHere()
       fingerprint = next
     }
     catch {

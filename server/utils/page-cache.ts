@@ -10,6 +10,7 @@
 // it everywhere (page-cache-redis.ts).
 import { createHash } from 'node:crypto'
 import type { Encoding } from './compression'
+import { dropInSiblings } from './sibling-processes'
 
 export interface CachedPage {
   status: number
@@ -164,10 +165,16 @@ export function keptHeaders(headers: Record<string, unknown>): Record<string, st
 
 /**
  * Drop what shows this story, and every list (home, browse, tags, search, feeds),
- * since a publish, withdraw or edit can change them all. Call it after the
- * transaction that changed the story has committed.
+ * since a publish, withdraw or edit can change them all, in this process and in the
+ * other processes of this host (server/cluster.mjs). Call it after the transaction
+ * that changed the story has committed.
  */
 export async function invalidateStoryCache(slug?: string): Promise<void> {
+  await Promise.all([dropStoryCacheHere(slug), dropInSiblings('story-cache', slug)])
+}
+
+/** The same in this process only: a sibling's drop, or a change this process's poll saw. */
+export async function dropStoryCacheHere(slug?: string): Promise<void> {
   for (const listener of droppedListeners) listener(slug)
   await store.drop(slug)
 }

@@ -5,9 +5,11 @@ import { DEFAULT_SITE_SETTINGS, SiteSettingsSchema, type SiteSettingKey, type Si
 
 interface SettingRow { key: string, value: string, version: number, updated_at: Date | string, updated_by_name: string | null }
 
-// Brief, so a second server process picks up an admin's change within seconds.
+// Brief, so another app server picks up an admin's change within seconds (the other
+// processes of this host drop theirs at once: server/utils/sibling-processes.ts).
 const CACHE_MS = 5_000
 let cached: { view: SiteSettingsView, at: number } | undefined
+onSiblingDrop('site-settings', () => { cached = undefined })
 
 const KEYS = Object.keys(SiteSettingsSchema.shape) as SiteSettingKey[]
 
@@ -82,5 +84,6 @@ export async function updateSiteSettings(actorId: number, patch: SiteSettingsPat
     throw error
   }
   cached = undefined
+  await dropInSiblings('site-settings')
   return getSiteSettingsView(db)
 }
