@@ -15,7 +15,7 @@ import { createStory, publishStory, storyBench, storyBody, transition } from '..
 import { DEMO, expectOk } from '../support/workspace'
 
 const env = localEnv('test')
-const port = env.app.port + 7
+const port = env.app.port + 8 // +1, +2, +5, +6 and +7 are other tests' servers
 const base = `http://127.0.0.1:${port}`
 let app: ChildProcess | undefined
 
