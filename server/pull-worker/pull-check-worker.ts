@@ -2,6 +2,7 @@
 // decoding, JSON parsing, the schema and shared/dyno's parser all stay off the
 // server's event loop. Bundled into .output/server/workers/pull-check-worker.mjs by the
 // build hook in nuxt.config.ts. Answers are plain data; errors come back as answers.
+import type { MessagePort } from 'node:worker_threads'
 import type { ZodType } from 'zod'
 import { CommitPullsBody, PreviewPullsBody } from '../../shared/types/workspace'
 import type { CorrectionStandard } from '../../shared/dyno/index'
@@ -10,6 +11,7 @@ import { checkPullBatchFiles } from '../services/workspace/pull-batch-check'
 import { encodePoints } from '../services/workspace/pull-points'
 import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckRefusal, type PullCheckTask, type PullImportAnswer, type StoredPullToCheck } from '../services/workspace/pull-check-task'
 import type { PullToImport } from '../services/workspace/pull-import'
+import { moveToPort, takeFromPort } from '../utils/port-bytes'
 
 function lines(text: string): number {
   let n = 0
@@ -35,10 +37,10 @@ function fileName(json: unknown, index: unknown): string | undefined {
  * JSON body -> validated files with the rows cap, or the 400/413 the route answers.
  * `named` puts the file's name before each of its problems, as server/utils/validation.ts's batchParser does.
  */
-function readFiles<T extends { files: { text: string }[] }>(body: Uint8Array[], schema: ZodType<T>, named: boolean): T | PullCheckRefusal {
+function readFiles<T extends { files: { text: string }[] }>(body: MessagePort, schema: ZodType<T>, named: boolean): T | PullCheckRefusal {
   let json: unknown
-  // The pieces are joined here, on the worker's thread.
-  try { json = JSON.parse(Buffer.concat(body).toString('utf8')) }
+  // The chunks are joined here, on the worker's thread.
+  try { json = JSON.parse(Buffer.concat(takeFromPort(body)).toString('utf8')) }
   catch { return { ok: false, status: 400, message: 'The request body is not valid JSON.' } }
   const parsed = schema.safeParse(json)
   if (!parsed.success) {
@@ -51,7 +53,7 @@ function readFiles<T extends { files: { text: string }[] }>(body: Uint8Array[], 
   return rowsRefusal(parsed.data.files.map(f => f.text), 'Check fewer files at once.') ?? parsed.data
 }
 
-function importBody(body: Uint8Array[], standard: CorrectionStandard): PullImportAnswer {
+function importBody(body: MessagePort, standard: CorrectionStandard): PullImportAnswer {
   const files = readFiles(body, CommitPullsBody, true)
   if ('ok' in files) return files
   return checkBatch(files.files, standard)
@@ -75,7 +77,21 @@ function checkBatch(files: PullToImport[], standard: CorrectionStandard): PullIm
   return { ok: true, pulls }
 }
 
+/** Each uploaded file joined from its port, checked, and its joined bytes moved back on the same port for the server to store. */
+function uploadedFiles(files: { name: string, port: MessagePort }[]): PullCheckAnswer {
+  const joined = files.map(f => Buffer.concat(takeFromPort(f.port, { keepOpen: true })))
+  const texts = joined.map(bytes => decodeUploadedBytes(bytes))
+  const over = rowsRefusal(texts, 'Send fewer files at once.')
+  const answer: PullCheckAnswer = over ?? { ok: true, previews: files.map((f, i) => checkPullFile({ name: f.name, text: texts[i]!, bytes: joined[i]!.byteLength }).preview) }
+  files.forEach((f, i) => {
+    if (!over) moveToPort(f.port, joined[i]!)
+    f.port.close()
+  })
+  return answer
+}
+
 export default function checkInWorker(task: PullCheckTask): PullCheckAnswer | PullImportAnswer {
+  if (task.kind === 'upload-files') return uploadedFiles(task.files)
   if (task.kind === 'files') {
     const texts = task.files.map(f => decodeUploadedBytes(f.bytes))
     const over = rowsRefusal(texts, 'Send fewer files at once.')

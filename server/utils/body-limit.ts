@@ -3,12 +3,15 @@
 // moment it passes its route's limit, before anything past the limit is held.
 // server/middleware/02.body-limit.ts hands h3's own readers (readRawBody, and through
 // it readBody, readValidatedBody, readMultipartFormData, readFormData) to it; the
-// streaming routes (photo and operator uploads) call limitedBody() themselves.
+// streaming routes (photo and operator uploads) call limitedBody() themselves, and the
+// pull checks' large bodies go straight to the worker (readLimitedBodyInto).
 import { Transform, type Readable } from 'node:stream'
 import type { IncomingMessage } from 'node:http'
+import type { MessagePort } from 'node:worker_threads'
 import { createError, getRequestHeader, type H3Event } from 'h3'
 import { OPERATOR_LINK_LIMITS, PULL_LIMITS } from '../../shared/types/workspace'
 import { PHOTO_MAX_BYTES } from '../../shared/types/photos'
+import { moveToPort } from './port-bytes'
 
 const KB = 1024
 const MB = 1024 * KB
@@ -140,37 +143,21 @@ export async function readLimitedBody(event: H3Event, maxBytes = bodyLimitFor(ev
   return Buffer.concat(chunks, size)
 }
 
-/** Size of the pieces readLimitedBodySegments copies a body into. */
-export const BODY_SEGMENT_BYTES = MB
-
 /**
- * The whole body, at most maxBytes (413 past that), copied as it arrives into pieces of
- * BODY_SEGMENT_BYTES, each on an ArrayBuffer of its own: the copying is spread over the
- * chunks instead of one long join at the end (joining 20 MB held the event loop for
- * hundreds of milliseconds on a busy machine), and the pieces can be moved (transferred)
- * to a worker thread, which joins them there.
+ * The whole body, at most maxBytes (413 past that), moved chunk by chunk as it arrives
+ * into `port`'s queue (moveToPort, server/utils/port-bytes.ts): the other end of the
+ * channel goes to a worker thread, which takes and joins the chunks there. Nothing of
+ * the body is copied, joined or kept on this thread; keeping 60 MB of pieces here until
+ * the body ended made the garbage collector stop the event loop for over 100 ms.
+ * Returns the number of bytes received.
  */
-export async function readLimitedBodySegments(event: H3Event, maxBytes = bodyLimitFor(event.path)): Promise<Uint8Array<ArrayBuffer>[]> {
-  const segments: Uint8Array<ArrayBuffer>[] = []
-  let current: Uint8Array<ArrayBuffer> | undefined
-  let used = 0
-  for await (const data of limitedBody(event, maxBytes)) {
-    const chunk = data as Buffer
-    for (let offset = 0; offset < chunk.length;) {
-      if (!current || used === current.length) {
-        current = new Uint8Array(new ArrayBuffer(BODY_SEGMENT_BYTES))
-        segments.push(current)
-        used = 0
-      }
-      const n = Math.min(current.length - used, chunk.length - offset)
-      current.set(chunk.subarray(offset, offset + n), used)
-      used += n
-      offset += n
-    }
+export async function readLimitedBodyInto(event: H3Event, port: MessagePort, maxBytes = bodyLimitFor(event.path)): Promise<number> {
+  let size = 0
+  for await (const chunk of limitedBody(event, maxBytes)) {
+    size += (chunk as Buffer).length
+    moveToPort(port, chunk as Buffer)
   }
-  // The last piece is cut to what it holds (a copy of under one segment).
-  if (current && used < current.length) segments[segments.length - 1] = current.slice(0, used)
-  return segments
+  return size
 }
 
 /** True when nothing of this request's body was read by the limited reader. */

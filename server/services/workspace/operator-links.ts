@@ -6,7 +6,7 @@ import type { Knex } from 'knex'
 import { OPERATOR_LINK_LIMITS, PULL_LIMITS, type CreatedOperatorLink, type CreateOperatorLinkInput, type OperatorLink, type OperatorLinkState, type UploadLinkInfo, type UploadReceipt } from '../../../shared/types/workspace'
 import { fileArrivalIntoPlan, planArrivals } from './dyno-day-filing'
 import { bumpLiveMark } from './live-marks'
-import { checkUploadedFiles } from './pull-pool'
+import { checkIncomingFiles, type IncomingFile } from './pull-pool'
 import { httpError, missing } from '../../utils/http-errors'
 import { asBool, isoTime, isoTimeRequired } from '../../utils/rows'
 
@@ -133,17 +133,18 @@ export function cleanFileName(raw: string | undefined, fallback: string): string
   return printable || fallback
 }
 
-export interface UploadedFile { name: string, data: Uint8Array }
-
 /**
  * Files into the inbox, all or none: the link row is locked so the rate limit and the
  * file allowance hold even when the operator sends several requests at once.
  */
-export async function receiveUploads(db: Knex, token: string, files: readonly UploadedFile[]): Promise<UploadReceipt> {
-  if (files.length === 0) throw httpError(400, 'No file was sent: attach one or more CSV files as "file".')
-  if (files.length > PULL_LIMITS.maxFilesPerBatch) throw httpError(400, `Send at most ${PULL_LIMITS.maxFilesPerBatch} files at once.`)
-  // Checked in the worker pool before the link row is locked: a slow check holds no lock.
-  const previews = await checkUploadedFiles(files.map(f => ({ name: f.name, bytes: f.data })))
+export async function receiveUploads(db: Knex, token: string, incoming: IncomingFile[]): Promise<UploadReceipt> {
+  if (incoming.length === 0 || incoming.length > PULL_LIMITS.maxFilesPerBatch) {
+    for (const f of incoming) f.close()
+    throw httpError(400, incoming.length === 0 ? 'No file was sent: attach one or more CSV files as "file".' : `Send at most ${PULL_LIMITS.maxFilesPerBatch} files at once.`)
+  }
+  // Joined and checked in the worker pool before the link row is locked: a slow check holds no lock.
+  const files = await checkIncomingFiles(incoming)
+  const previews = files.map(f => f.preview)
   // During a dyno day a good file goes straight to the plan's current step: checked as a pull now, in the pool too.
   const planned = await planArrivals(db, (await usableLink(db, token)).bench_test_id, files.map((f, i) => ({ name: f.name, bytes: f.data, ok: previews[i]!.ok, weather: previews[i]!.weather })))
   return db.transaction(async (trx) => {

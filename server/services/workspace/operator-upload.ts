@@ -1,12 +1,15 @@
 // Reads the files of an operator upload as they stream in: each file's type is decided
 // from its first bytes (a photo or a workbook is refused before the rest of it arrives),
 // each is cut off at the link's size limit, and the whole body at the batch's limit.
+// A file's bytes are moved to a channel for the check worker as they arrive
+// (IncomingFile, pull-pool.ts): the server's thread never joins them.
 import Busboy from 'busboy'
 import type { H3Event } from 'h3'
 import { PULL_LIMITS } from '#shared/types/workspace'
 import { SNIFF_BYTES, sniffFile } from '#shared/utils/file-sniff'
 import { limitedBody, stopReadingBody } from '../../utils/body-limit'
-import { cleanFileName, type UploadedFile } from './operator-links'
+import { cleanFileName } from './operator-links'
+import { IncomingFile } from './pull-pool'
 import { httpError } from '../../utils/http-errors'
 
 // Multipart boundaries and part headers around the files.
@@ -16,7 +19,7 @@ function megabytes(bytes: number): string {
   return `${(bytes / 1024 / 1024).toFixed(0)} MB`
 }
 
-export function readOperatorUpload(event: H3Event, maxFileBytes: number): Promise<UploadedFile[]> {
+export function readOperatorUpload(event: H3Event, maxFileBytes: number): Promise<IncomingFile[]> {
   const type = getRequestHeader(event, 'content-type') ?? ''
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw httpError(400, 'Send the files as multipart/form-data, each part named "file".')
@@ -36,12 +39,13 @@ export function readOperatorUpload(event: H3Event, maxFileBytes: number): Promis
       reject(httpError(400, 'The upload is not valid multipart data (no boundary).'))
       return
     }
-    const files: UploadedFile[] = []
+    const files: IncomingFile[] = []
     let done = false
     // The first refusal ends the upload at once: nothing more of the body is read.
     const fail = (error: Error) => {
       if (done) return
       done = true
+      for (const f of files) f.close()
       stopReadingBody(event)
       body.unpipe(parser)
       parser.on('error', () => { /* left behind on purpose */ })
@@ -53,25 +57,29 @@ export function readOperatorUpload(event: H3Event, maxFileBytes: number): Promis
         stream.resume()
         return
       }
-      const name = cleanFileName(info.filename, `upload-${files.length + 1}.csv`)
-      const chunks: Buffer[] = []
-      let size = 0
+      const file = new IncomingFile(cleanFileName(info.filename, `upload-${files.length + 1}.csv`))
+      files.push(file)
+      // Only the first bytes are kept here, to tell the file's type.
+      const head: Buffer[] = []
+      let headBytes = 0
       let sniffed = false
       const sniff = () => {
         sniffed = true
-        const head = Buffer.concat(chunks, size).subarray(0, SNIFF_BYTES)
-        const found = sniffFile(head)
-        if (!found.text) fail(httpError(415, `${name} is ${found.kind}, not a pull file. Send the pulls as CSV text files. Nothing of this upload was kept.`))
+        const found = sniffFile(Buffer.concat(head, headBytes).subarray(0, SNIFF_BYTES))
+        if (!found.text) fail(httpError(415, `${file.name} is ${found.kind}, not a pull file. Send the pulls as CSV text files. Nothing of this upload was kept.`))
       }
       stream.on('data', (chunk: Buffer) => {
-        chunks.push(chunk)
-        size += chunk.length
-        if (!sniffed && size >= SNIFF_BYTES) sniff()
+        if (done) return
+        if (!sniffed) {
+          head.push(Buffer.from(chunk.subarray(0, SNIFF_BYTES - headBytes)))
+          headBytes += Math.min(chunk.length, SNIFF_BYTES - headBytes)
+          if (headBytes >= SNIFF_BYTES) sniff()
+        }
+        if (!done) file.add(chunk)
       })
-      stream.on('limit', () => fail(httpError(413, `${name} is larger than ${megabytes(maxFileBytes)}; files up to ${megabytes(maxFileBytes)} are accepted. Nothing of this upload was kept.`)))
+      stream.on('limit', () => fail(httpError(413, `${file.name} is larger than ${megabytes(maxFileBytes)}; files up to ${megabytes(maxFileBytes)} are accepted. Nothing of this upload was kept.`)))
       stream.on('end', () => {
         if (!sniffed) sniff()
-        if (!done) files.push({ name, data: Buffer.concat(chunks, size) })
       })
     })
     parser.on('filesLimit', () => fail(httpError(400, `Send at most ${PULL_LIMITS.maxFilesPerBatch} files at once.`)))

@@ -1,15 +1,23 @@
 // The messages between the server and the pull check worker (server/pull-worker/).
+// Request bodies and uploaded files travel in MessagePorts whose queues hold their
+// chunks, moved as they arrived (server/utils/port-bytes.ts); the worker takes them.
+import type { MessagePort } from 'node:worker_threads'
 import type { ColumnRole, CorrectionStandard, Weather } from '../../../shared/dyno/index'
 import { PULL_LIMITS, type PullFilePreview } from '../../../shared/types/workspace'
 import type { CheckedPull } from './pull-import'
 
 export type PullCheckTask
-  /** A JSON body of POST .../pulls/preview, as received: its pieces in order (readLimitedBodySegments). */
-  = | { kind: 'preview-body', body: Uint8Array[] }
+  /** A JSON body of POST .../pulls/preview, its chunks waiting in the port (readLimitedBodyInto). */
+  = | { kind: 'preview-body', body: MessagePort }
   /** A JSON body of POST .../pulls/import, as received, and the bench test's correction standard. */
-    | { kind: 'import-body', body: Uint8Array[], standard: CorrectionStandard }
-  /** Files as uploaded bytes (the operator's upload, a stored inbox file). */
+    | { kind: 'import-body', body: MessagePort, standard: CorrectionStandard }
+  /** Stored files as bytes (a stored inbox file checked again). */
     | { kind: 'files', files: { name: string, bytes: Uint8Array, mapping?: Record<string, ColumnRole> }[] }
+  /**
+   * The operator's uploaded files, each file's chunks waiting in its port: the worker
+   * joins each file, checks it, and posts the joined bytes back on the same port.
+   */
+    | { kind: 'upload-files', files: { name: string, port: MessagePort }[] }
   /** Stored files (inbox assignment, dyno-day filing) checked as one batch before they are saved. */
     | { kind: 'batch-files', files: StoredPullToCheck[], standard: CorrectionStandard }
 
