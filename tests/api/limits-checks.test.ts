@@ -106,7 +106,8 @@ describe('pull checks in the worker pool', () => {
     const assigned = expectOk(await writer.post(`/api/bench-tests/${benchTestId}/inbox/assign`, { items: [{ fileId: entry.id, setupId, weather: null, dynoCorrected: true }] }), 201)
     expect(assigned.pulls[0]).toMatchObject({ fileName: 'inbox-1.csv', setupId })
     const afterAssign = await sent()
-    expect(afterAssign.files).toBe(before.files! + 1)
+    // The upload's files go to the worker as they arrive and are joined there ('upload-files').
+    expect(afterAssign['upload-files']).toBe(before['upload-files']! + 1)
     expect(afterAssign['batch-files']).toBe(before['batch-files']! + 1)
 
     // A running day files a good file with its weather straight into the current step, checked in the pool.
@@ -116,7 +117,7 @@ describe('pull checks in the worker pool', () => {
     const filed = expectOk(await uploadFiles(token, [{ name: 'day-1.csv', text: pullCsv({ seed: 27 }).csv }]), 201)
     expect(filed.received[0].filedTo).toBe('Pool baseline')
     const afterDay = await sent()
-    expect(afterDay.files).toBe(afterAssign.files! + 1)
+    expect(afterDay['upload-files']).toBe(afterAssign['upload-files']! + 1)
     expect(afterDay['batch-files']).toBe(afterAssign['batch-files']! + 1)
 
     // The operator's upload has the same rows cap as a writer's check.

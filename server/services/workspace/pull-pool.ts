@@ -59,16 +59,6 @@ export function pullCheckStats(): { threads: number, running: number, queued: nu
 
 const busy = () => createError({ statusCode: 503, statusMessage: 'Service Unavailable', message: 'The server is checking as many files as it can right now. Try again in a few seconds.', data: { retryAfterSeconds: 5 } })
 
-/**
- * 503 before a large body is read when the queue is already full: the sender is told
- * at once instead of after sending 60 MB that would be refused anyway. (run() still
- * answers 503 when the queue fills while the body arrives.)
- */
-function refuseWhenFull(): void {
-  const p = checkPool()
-  if (p && queueLimit > 0 && p.queueSize >= queueLimit) throw busy()
-}
-
 type TransferList = Parameters<Piscina['run']>[1] extends { transferList?: infer T } ? T : never
 
 async function run(task: PullCheckTask, transfer: MessagePort[]): Promise<PullCheckAnswer | PullImportAnswer> {
@@ -103,7 +93,6 @@ function answered(answer: PullCheckAnswer | PullImportAnswer): PullFilePreview[]
  * outside the server's heap, for the worker. A slow sender holds no check thread.
  */
 export async function receiveCheckBody(event: H3Event): Promise<MessagePort> {
-  refuseWhenFull()
   const { port1, port2 } = new MessageChannel()
   try {
     await readLimitedBodyInto(event, port1)
