@@ -21,6 +21,13 @@ export function useBenchTest(id: MaybeRefOrGetter<number>) {
   }
 }
 
+/** A page under /bench-tests/[id]: the id from the route and the bench test the shell fetched. */
+export function useBenchTestPage() {
+  const route = useRoute()
+  const id = computed(() => Number(route.params.id))
+  return { id, ...useBenchTest(id) }
+}
+
 export function useBenchTestActions(id: MaybeRefOrGetter<number>) {
   const refresh = () => refreshNuxtData(benchTestKey(toValue(id)))
 
