@@ -11,7 +11,7 @@ export default defineNitroPlugin((nitroApp) => {
     running = true
     try {
       // Several stories may fall due together: drain what is due, then wait.
-      for (let n = 0; n < 50 && await runOneJob(publishJobHandlers, 120); n++) { /* next */ }
+      for (let n = 0; n < 50 && await runOneJob(publishJobHandlers(useDb()), 120); n++) { /* next */ }
     }
     catch { /* database away: the jobs stay due and are claimed on a later tick */ }
     finally { running = false }

@@ -15,9 +15,9 @@ export default defineNitroPlugin((nitroApp) => {
         // The route's own parameter check; a malformed slug is simply no story here.
         const params = MagazineSlugParams.safeParse({ slug })
         if (!params.success) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'No such story.' })
-        return readerStoryFor(event, params.data.slug).catch((error) => { throw outageAs503(error) })
+        return readerStoryFor(useDb(), event, params.data.slug).catch((error) => { throw outageAs503(error) })
       },
-      siteTimeZone: async () => (await getSiteSettings()).timeZone,
+      siteTimeZone: async () => (await getSiteSettings(useDb())).timeZone,
     }
   })
 })

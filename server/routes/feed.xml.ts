@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   // offering a download, and feed readers take either.
   setResponseHeader(event, 'content-type', 'application/xml; charset=utf-8')
   setResponseHeader(event, 'content-security-policy', FEED_CSP)
-  return rssFeedXml(useAppConfig().magazine.name)
+  return rssFeedXml(useDb(), useAppConfig().magazine.name)
 })

@@ -1,5 +1,6 @@
 import knex, { type Knex } from 'knex'
 import { knexConfig } from '../db/knex-config'
+import { appConfig } from './config'
 
 /** A connection a service reads or writes through: the pool or a transaction. */
 export type Db = Knex | Knex.Transaction

@@ -1,11 +1,11 @@
-import type { Knex } from 'knex'
+import type { Db } from './db'
 
 export interface JobRow { id: number, kind: string, payload: unknown, attempts: number, max_attempts: number }
 // Each handler validates its own payload (it was written by this app, but rows outlive releases).
 export type JobHandler = (payload: unknown, job: JobRow) => Promise<void>
 
 /** Queues a job, inside the caller's transaction when given one. */
-export async function enqueueJob(db: Knex | Knex.Transaction, kind: string, payload: unknown, opts: { runAt?: Date, maxAttempts?: number } = {}): Promise<number> {
+export async function enqueueJob(db: Db, kind: string, payload: unknown, opts: { runAt?: Date, maxAttempts?: number } = {}): Promise<number> {
   const [id] = await db('jobs').insert({
     kind,
     payload: JSON.stringify(payload),

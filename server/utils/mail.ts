@@ -1,4 +1,4 @@
-import type { Knex } from 'knex'
+import type { Db } from './db'
 import nodemailer, { type Transporter } from 'nodemailer'
 import type SMTPTransport from 'nodemailer/lib/smtp-transport'
 import { escapeHtml } from './escape-html'
@@ -10,7 +10,7 @@ export interface OutgoingMail { to: string, subject: string, paragraphs: string[
  * its mail commit together, and sending happens later (server/plugins/mail-worker.ts).
  * Values are escaped here, never interpolated into markup by callers.
  */
-export async function enqueueMail(db: Knex | Knex.Transaction, mail: OutgoingMail): Promise<void> {
+export async function enqueueMail(db: Db, mail: OutgoingMail): Promise<void> {
   const text = [...mail.paragraphs, ...(mail.link ? [`${mail.link.label}: ${mail.link.href}`] : []), '', '— The Pullsheet desk'].join('\n\n')
   const html = [
     ...mail.paragraphs.map(p => `<p>${escapeHtml(p)}</p>`),

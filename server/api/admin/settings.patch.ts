@@ -5,5 +5,5 @@ import { updateSiteSettings } from '~~/server/services/magazine/settings'
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')
   const body = await readValidatedBody(event, zodParser(SiteSettingsPatchBody))
-  return updateSiteSettings(admin.id, body)
+  return updateSiteSettings(useDb(), admin.id, body)
 })

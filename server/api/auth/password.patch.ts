@@ -9,12 +9,12 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('reader'))
   const body = await readValidatedBody(event, zodParser(PasswordChangeBody))
   const ip = clientIp(event)
-  await assertLoginAllowed(event, user.email, ip)
-  if (!(await verifyUserPassword(user.id, body.currentPassword))) {
-    await recordLoginFailure(user.email, ip)
+  await assertLoginAllowed(useDb(), event, user.email, ip)
+  if (!(await verifyUserPassword(useDb(), user.id, body.currentPassword))) {
+    await recordLoginFailure(useDb(), user.email, ip)
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The current password is not right.', data: { issues: [{ path: 'currentPassword', message: 'Not right' }] } })
   }
-  const sv = await setPassword(user.id, body.newPassword)
+  const sv = await setPassword(useDb(), user.id, body.newPassword)
   // Other devices are signed out; this one keeps going with the new version.
   await replaceUserSession(event, { user: { id: user.id, sv }, loggedInAt: new Date().toISOString() })
   return { ok: true }

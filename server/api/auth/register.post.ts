@@ -11,9 +11,9 @@ import { registerOrTellOwner } from '~~/server/services/accounts/requests'
 export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, zodParser(RegisterBody))
   const ip = clientIp(event)
-  await assertAttemptAllowed(event, 'register', body.email, ip)
-  await recordAttempt('register', body.email, ip)
-  afterAnswer(event, 'registration', () => registerOrTellOwner(body))
+  await assertAttemptAllowed(useDb(), event, 'register', body.email, ip)
+  await recordAttempt(useDb(), 'register', body.email, ip)
+  afterAnswer(event, 'registration', () => registerOrTellOwner(useDb(), body))
   setResponseStatus(event, 202)
   return { mailed: true }
 })

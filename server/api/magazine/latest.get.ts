@@ -2,5 +2,5 @@ import { latestStories, MagazineListQuery } from '~~/server/services/magazine/li
 
 export default defineEventHandler(async (event) => {
   const { page } = await getValidatedQuery(event, zodParser(MagazineListQuery))
-  return latestStories(page)
+  return latestStories(useDb(), page)
 })

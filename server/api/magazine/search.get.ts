@@ -2,5 +2,5 @@ import { MagazineSearchQuery, searchStories } from '~~/server/services/magazine/
 
 export default defineEventHandler(async (event) => {
   const { q, page } = await getValidatedQuery(event, zodParser(MagazineSearchQuery))
-  return { q, ...await searchStories(q, page) }
+  return { q, ...await searchStories(useDb(), q, page) }
 })

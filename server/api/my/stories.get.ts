@@ -5,5 +5,5 @@ import { myStories } from '~~/server/services/stories/lists'
 export default defineEventHandler(async (event): Promise<MyStoriesResponse> => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const { state } = await getValidatedQuery(event, zodParser(MyStoriesQuery))
-  return myStories(user, state)
+  return myStories(useDb(), user, state)
 })

@@ -7,6 +7,6 @@ const Params = z.object({ id: z.coerce.number().int().positive() })
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const { id } = await getValidatedRouterParams(event, zodParser(Params))
-  await deletePhoto(user, id)
+  await deletePhoto(useDb(), user, id)
   return { deleted: true }
 })

@@ -9,5 +9,5 @@ export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const { id } = await getValidatedRouterParams(event, zodParser(Params))
   const body = await readValidatedBody(event, zodParser(UpdatePhotoBody))
-  return { photo: await updatePhotoMeta(user, id, body) }
+  return { photo: await updatePhotoMeta(useDb(), user, id, body) }
 })

@@ -3,5 +3,5 @@ import { readerPreferences } from '~~/server/services/magazine/preferences'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('reader'))
-  return { preferences: await readerPreferences(user.id) }
+  return { preferences: await readerPreferences(useDb(), user.id) }
 })

@@ -4,5 +4,5 @@ import { previewTokenParam, previewView } from '~~/server/services/stories/previ
 // Public by design: whoever holds the token sees the story, and nothing else.
 export default defineEventHandler(async (event): Promise<StoryReaderView> => {
   setResponseHeaders(event, { 'X-Robots-Tag': 'noindex, nofollow', 'Cache-Control': 'private, no-store', 'Referrer-Policy': 'no-referrer' })
-  return previewView(previewTokenParam(event))
+  return previewView(useDb(), previewTokenParam(event))
 })

@@ -4,5 +4,5 @@ import { getStory } from '~~/server/services/stories/stories'
 
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const { user, params } = await requireStoryRoute(event)
-  return { story: await getStory(user, params.id) }
+  return { story: await getStory(useDb(), user, params.id) }
 })

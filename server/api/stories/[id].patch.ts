@@ -5,5 +5,5 @@ import { saveStoryContent } from '~~/server/services/stories/save'
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const { user, params } = await requireStoryRoute(event)
   const body = await readValidatedBody(event, zodParser(UpdateStoryBody))
-  return { story: await saveStoryContent(user, params.id, body) }
+  return { story: await saveStoryContent(useDb(), user, params.id, body) }
 })

@@ -5,7 +5,7 @@ import { createStoryDraft } from '~~/server/services/stories/save'
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const body = await readValidatedBody(event, zodParser(CreateStoryBody))
-  const story = await createStoryDraft(user, body)
+  const story = await createStoryDraft(useDb(), user, body)
   setResponseStatus(event, 201)
   return { story }
 })

@@ -8,5 +8,5 @@ export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')
   const { id } = await getValidatedRouterParams(event, zodParser(Params))
   const body = await readValidatedBody(event, zodParser(UpdateUserBody))
-  return { user: await updateUser(admin, id, body) }
+  return { user: await updateUser(useDb(), admin, id, body) }
 })

@@ -7,9 +7,9 @@ export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, zodParser(CreateUserBody))
   const invited = !body.password
   const user = await useDb().transaction(async (trx) => {
-    const created = await createUser(body, trx)
+    const created = await createUser(trx, body)
     if (invited) {
-      const token = await issueUserToken(created.id, 'invite', trx)
+      const token = await issueUserToken(trx, created.id, 'invite')
       await enqueueMail(trx, {
         to: created.email,
         subject: 'You are invited to Pullsheet',

@@ -4,6 +4,7 @@
 // harmless, so servers need not agree who runs it) and on demand by an admin
 // (POST /api/admin/housekeeping).
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { ATTEMPT_RULES } from './login-limit'
 
 export interface HousekeepingReport {
@@ -25,7 +26,7 @@ export const KEEP_DAYS = { userTokens: 7, jobs: 30, mails: 30 } as const
 /** The limiter only counts attempts inside its window; the longest window of any kind. */
 export const attemptWindowMinutes = Math.max(...Object.values(ATTEMPT_RULES).map(r => r.windowMinutes))
 
-async function inBatches(db: Knex, sql: string, bindings: readonly Knex.RawBinding[]): Promise<number> {
+async function inBatches(db: Db, sql: string, bindings: readonly Knex.RawBinding[]): Promise<number> {
   let total = 0
   for (;;) {
     const [result] = await db.raw(`${sql} LIMIT ${PURGE_BATCH}`, bindings) as [{ affectedRows: number }]
@@ -34,7 +35,7 @@ async function inBatches(db: Knex, sql: string, bindings: readonly Knex.RawBindi
   }
 }
 
-export async function purgeExpiredRows(db: Knex): Promise<HousekeepingReport> {
+export async function purgeExpiredRows(db: Db): Promise<HousekeepingReport> {
   return {
     attempts: await inBatches(db, 'DELETE FROM login_failures WHERE failed_at < NOW(3) - INTERVAL ? MINUTE', [attemptWindowMinutes]),
     userTokens: await inBatches(db, 'DELETE FROM user_tokens WHERE (used_at IS NOT NULL AND used_at < NOW(3) - INTERVAL ? DAY) OR expires_at < NOW(3) - INTERVAL ? DAY', [KEEP_DAYS.userTokens, KEEP_DAYS.userTokens]),

@@ -1,4 +1,5 @@
 import type { H3Event } from 'h3'
+import type { Db } from '../../utils/db'
 
 // One limiter for every account route: attempts are rows in MariaDB (so the limit
 // holds across app servers), counted per address (e-mail) and per client IP over a
@@ -31,9 +32,8 @@ export function clientIp(event: H3Event): string {
 const normalAddress = (email: string) => email.trim().toLowerCase().slice(0, 254)
 
 /** Throws 429 with a retry time when this address or IP has used up the kind's attempts. */
-export async function assertAttemptAllowed(event: H3Event, kind: AttemptKind, email: string | null, ip: string): Promise<void> {
+export async function assertAttemptAllowed(db: Db, event: H3Event, kind: AttemptKind, email: string | null, ip: string): Promise<void> {
   const rule = ATTEMPT_RULES[kind]
-  const db = useDb()
   const since = db.raw('NOW(3) - INTERVAL ? MINUTE', [rule.windowMinutes])
   const counted = (column: 'email' | 'ip', value: string) => db('login_failures').where({ kind, [column]: value })
     .where('failed_at', '>', since).count({ n: '*' }).min({ first: 'failed_at' }).first()
@@ -57,14 +57,14 @@ export async function assertAttemptAllowed(event: H3Event, kind: AttemptKind, em
   })
 }
 
-export async function recordAttempt(kind: AttemptKind, email: string | null, ip: string): Promise<void> {
-  await useDb()('login_failures').insert({ kind, email: email === null ? '' : normalAddress(email), ip: ip.slice(0, 64) })
+export async function recordAttempt(db: Db, kind: AttemptKind, email: string | null, ip: string): Promise<void> {
+  await db('login_failures').insert({ kind, email: email === null ? '' : normalAddress(email), ip: ip.slice(0, 64) })
 }
 
-export async function clearAttempts(kind: AttemptKind, email: string): Promise<void> {
-  await useDb()('login_failures').where({ kind, email: normalAddress(email) }).delete()
+export async function clearAttempts(db: Db, kind: AttemptKind, email: string): Promise<void> {
+  await db('login_failures').where({ kind, email: normalAddress(email) }).delete()
 }
 
-export const assertLoginAllowed = (event: H3Event, email: string, ip: string) => assertAttemptAllowed(event, 'login', email, ip)
-export const recordLoginFailure = (email: string, ip: string) => recordAttempt('login', email, ip)
-export const clearLoginFailures = (email: string) => clearAttempts('login', email)
+export const assertLoginAllowed = (db: Db, event: H3Event, email: string, ip: string) => assertAttemptAllowed(db, event, 'login', email, ip)
+export const recordLoginFailure = (db: Db, email: string, ip: string) => recordAttempt(db, 'login', email, ip)
+export const clearLoginFailures = (db: Db, email: string) => clearAttempts(db, 'login', email)

@@ -2,13 +2,14 @@
 // reset request and a registration answer the same at once, and the work that depends
 // on the address (a token, an account, a mail) happens after the answer (afterAnswer,
 // server/services/accounts/after-answer.ts).
+import type { Db } from '../../utils/db'
 import { createUser, findUserByEmail, issueUserToken } from './users'
 
-export async function mailPasswordReset(email: string): Promise<void> {
-  const user = await findUserByEmail(email)
+export async function mailPasswordReset(db: Db, email: string): Promise<void> {
+  const user = await findUserByEmail(db, email)
   if (!user || user.disabled) return
-  await useDb().transaction(async (trx) => {
-    const token = await issueUserToken(user.id, 'reset', trx)
+  await db.transaction(async (trx) => {
+    const token = await issueUserToken(trx, user.id, 'reset')
     await enqueueMail(trx, {
       to: user.email,
       subject: 'Reset your Pullsheet password',
@@ -23,10 +24,10 @@ export async function mailPasswordReset(email: string): Promise<void> {
  * (the invitation's link); an address that has an account gets a mail saying so, and
  * nothing changes on the account.
  */
-export async function registerOrTellOwner(input: { email: string, displayName: string }): Promise<void> {
-  const existing = await findUserByEmail(input.email)
+export async function registerOrTellOwner(db: Db, input: { email: string, displayName: string }): Promise<void> {
+  const existing = await findUserByEmail(db, input.email)
   if (existing) {
-    await enqueueMail(useDb(), {
+    await enqueueMail(db, {
       to: existing.email,
       subject: 'You already have a Pullsheet account',
       paragraphs: [`Hello ${existing.display_name},`, 'Someone, perhaps you, asked to create a Pullsheet account with this e-mail address. It has one already, so nothing was changed. Sign in with it; if you forgot the password, ask for a new one on the sign-in page. If it was not you, ignore this message.'],
@@ -35,9 +36,9 @@ export async function registerOrTellOwner(input: { email: string, displayName: s
     return
   }
   try {
-    await useDb().transaction(async (trx) => {
-      const created = await createUser({ ...input, role: 'reader' }, trx)
-      const token = await issueUserToken(created.id, 'invite', trx)
+    await db.transaction(async (trx) => {
+      const created = await createUser(trx, { ...input, role: 'reader' })
+      const token = await issueUserToken(trx, created.id, 'invite')
       await enqueueMail(trx, {
         to: created.email,
         subject: 'Finish creating your Pullsheet account',

@@ -1,5 +1,5 @@
 import { createHash, randomBytes } from 'node:crypto'
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { Role } from '#shared/types/roles'
 import type { CurrentUser, UserRow } from '#shared/types/users'
 
@@ -26,23 +26,22 @@ function toUserRow(row: UserDbRow): UserRow {
   }
 }
 
-export async function findUserByEmail(email: string): Promise<UserDbRow | undefined> {
-  return useDb()<UserDbRow>('users').where({ email }).first()
+export async function findUserByEmail(db: Db, email: string): Promise<UserDbRow | undefined> {
+  return db<UserDbRow>('users').where({ email }).first()
 }
 
-export async function listUsers(): Promise<UserRow[]> {
-  const rows = await useDb()<UserDbRow>('users').orderBy('id')
+export async function listUsers(db: Db): Promise<UserRow[]> {
+  const rows = await db<UserDbRow>('users').orderBy('id')
   return rows.map(toUserRow)
 }
 
-export async function getUserRow(id: number): Promise<UserRow | undefined> {
-  const row = await useDb()<UserDbRow>('users').where({ id }).first()
+export async function getUserRow(db: Db, id: number): Promise<UserRow | undefined> {
+  const row = await db<UserDbRow>('users').where({ id }).first()
   return row ? toUserRow(row) : undefined
 }
 
 /** Creates a user; 409 when the e-mail is already registered (case-insensitively). */
-export async function createUser(input: { email: string, displayName: string, role: Role, password?: string }, trx?: Knex.Transaction): Promise<UserRow> {
-  const db = trx ?? useDb()
+export async function createUser(db: Db, input: { email: string, displayName: string, role: Role, password?: string }): Promise<UserRow> {
   try {
     const [id] = await db('users').insert({
       email: input.email.toLowerCase(),
@@ -60,7 +59,7 @@ export async function createUser(input: { email: string, displayName: string, ro
 }
 
 /** Role, name or disabled flag; disabling bumps the session version so it applies at once. */
-export async function updateUser(actor: CurrentUser, id: number, changes: { role?: Role, disabled?: boolean, displayName?: string }): Promise<UserRow> {
+export async function updateUser(db: Db, actor: CurrentUser, id: number, changes: { role?: Role, disabled?: boolean, displayName?: string }): Promise<UserRow> {
   if (actor.id === id && (changes.disabled === true || (changes.role && changes.role !== 'admin'))) {
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'You cannot disable yourself or remove your own admin role.' })
   }
@@ -68,24 +67,22 @@ export async function updateUser(actor: CurrentUser, id: number, changes: { role
   if (changes.role) patch.role = changes.role
   if (changes.displayName) patch.display_name = changes.displayName
   if (changes.disabled !== undefined) patch.disabled = changes.disabled
-  const db = useDb()
   const count = await db('users').where({ id }).update({
     ...patch,
     ...(changes.disabled ? { session_version: db.raw('session_version + 1') } : {}),
   })
   if (!count) notFound('No such user.')
-  return (await getUserRow(id))!
+  return (await getUserRow(db, id))!
 }
 
-export async function bumpSessionVersion(id: number): Promise<number> {
-  const db = useDb()
+export async function bumpSessionVersion(db: Db, id: number): Promise<number> {
   await db('users').where({ id }).update({ session_version: db.raw('session_version + 1') })
   const row = await db('users').where({ id }).first('session_version')
   return Number(row.session_version)
 }
 
-export async function verifyUserPassword(id: number, password: string): Promise<boolean> {
-  const row = await useDb()<UserDbRow>('users').where({ id }).first('password_hash')
+export async function verifyUserPassword(db: Db, id: number, password: string): Promise<boolean> {
+  const row = await db<UserDbRow>('users').where({ id }).first('password_hash')
   return Boolean(row?.password_hash) && await verifyPassword(row!.password_hash!, password)
 }
 
@@ -93,16 +90,16 @@ export async function verifyUserPassword(id: number, password: string): Promise<
  * New password; every other session of this user ends (session version bumped) and
  * every reset or invitation link still open for the account stops working.
  */
-export async function setPassword(id: number, password: string): Promise<number> {
+export async function setPassword(db: Db, id: number, password: string): Promise<number> {
   const passwordHash = await hashPassword(password)
-  await useDb().transaction(async (trx) => {
+  await db.transaction(async (trx) => {
     await trx('users').where({ id }).update({ password_hash: passwordHash })
     await cancelOpenTokens(trx, id)
   })
-  return bumpSessionVersion(id)
+  return bumpSessionVersion(db, id)
 }
 
-function cancelOpenTokens(db: Knex | Knex.Transaction, userId: number) {
+function cancelOpenTokens(db: Db, userId: number) {
   return db('user_tokens').where({ user_id: userId }).whereNull('used_at').update({ used_at: db.raw('NOW(3)') })
 }
 
@@ -112,9 +109,8 @@ type TokenPurpose = keyof typeof TOKEN_HOURS
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex')
 
 /** A one-time token for an e-mailed link; only its hash is stored. */
-export async function issueUserToken(userId: number, purpose: TokenPurpose, trx?: Knex.Transaction): Promise<string> {
+export async function issueUserToken(db: Db, userId: number, purpose: TokenPurpose): Promise<string> {
   const token = randomBytes(32).toString('base64url')
-  const db = trx ?? useDb()
   await db('user_tokens').insert({
     user_id: userId,
     purpose,
@@ -125,7 +121,7 @@ export async function issueUserToken(userId: number, purpose: TokenPurpose, trx?
 }
 
 /** An open (unused, unexpired) token: one sha256 and one indexed read, nothing hashed slowly. */
-async function findOpenToken(db: Knex | Knex.Transaction, token: string, opts: { lock?: boolean } = {}): Promise<{ id: number, user_id: number } | undefined> {
+async function findOpenToken(db: Db, token: string, opts: { lock?: boolean } = {}): Promise<{ id: number, user_id: number } | undefined> {
   const query = db('user_tokens')
     .where({ token_hash: hashToken(token) })
     .whereNull('used_at')
@@ -139,10 +135,10 @@ async function findOpenToken(db: Knex | Knex.Transaction, token: string, opts: {
  * password is hashed, so a link that does not work costs no hashing; using it cancels
  * every other open link of the account. False when the token does not work.
  */
-export async function redeemUserToken(token: string, password: string): Promise<boolean> {
-  if (!await findOpenToken(useDb(), token)) return false
+export async function redeemUserToken(db: Db, token: string, password: string): Promise<boolean> {
+  if (!await findOpenToken(db, token)) return false
   const passwordHash = await hashPassword(password)
-  return useDb().transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     const row = await findOpenToken(trx, token, { lock: true })
     if (!row) return false
     await trx('user_tokens').where({ id: row.id }).update({ used_at: trx.raw('NOW(3)') })

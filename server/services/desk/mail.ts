@@ -67,7 +67,7 @@ export async function mailStateChange(trx: Knex.Transaction, m: StateMail): Prom
   const people = await recipients(trx, m.to, m.storyId, m.actor?.id ?? null)
   const who = m.actor ? m.actor.name : 'The publishing schedule'
   // The magazine's clock; a recipient's own zone is not known to the server.
-  const zone = (await getSiteSettings()).timeZone
+  const zone = (await getSiteSettings(trx)).timeZone
   const paragraphs = [
     `${who} moved "${m.headline}" from ${storyStateLabel(m.from)} to ${storyStateLabel(m.toState)}.`,
     ...(m.scheduledAt && m.toState === 'scheduled' ? [`It goes live at ${formatTime(m.scheduledAt, zone)}.`] : []),

@@ -3,6 +3,7 @@
 // then locked and checked, so a story taken off the schedule, published by hand
 // or moved to another time is skipped, and a second job for it finds nothing to do.
 import { z } from 'zod'
+import type { Db } from '../../utils/db'
 import { SCHEDULED_PUBLISH } from '#shared/types/story-workflow'
 import { applyMove, PUBLISH_JOB } from './transitions'
 import { type StoryRow, storyTransaction } from '../stories/stories'
@@ -11,12 +12,12 @@ const PublishPayload = z.object({ storyId: z.number().int().positive(), schedule
 
 export type PublishOutcome = 'published' | 'skipped'
 
-export async function publishScheduledStory(payload: unknown): Promise<PublishOutcome> {
+export async function publishScheduledStory(db: Db, payload: unknown): Promise<PublishOutcome> {
   const parsed = PublishPayload.safeParse(payload)
   // A payload this app cannot read will never become readable: nothing to retry.
   if (!parsed.success) return 'skipped'
   const { storyId, scheduledAt } = parsed.data
-  return storyTransaction(async (trx) => {
+  return storyTransaction(db, async (trx) => {
     const row = await trx<StoryRow>('stories').where({ id: storyId }).forUpdate().first()
     if (!row || row.state !== 'scheduled' || !row.scheduled_at) return 'skipped'
     if (new Date(row.scheduled_at).getTime() !== new Date(scheduledAt).getTime()) return 'skipped'
@@ -26,6 +27,6 @@ export async function publishScheduledStory(payload: unknown): Promise<PublishOu
 }
 
 /** Handlers for runOneJob: the publishing worker (server/plugins/publish-worker.ts) runs these. */
-export const publishJobHandlers = {
-  [PUBLISH_JOB]: async (payload: unknown) => { await publishScheduledStory(payload) },
-}
+export const publishJobHandlers = (db: Db) => ({
+  [PUBLISH_JOB]: async (payload: unknown) => { await publishScheduledStory(db, payload) },
+})

@@ -2,6 +2,7 @@
 // (shared/types/story-workflow.ts); this file enforces them and runs each move in
 // one transaction: the row, the audit, a revision, the mail and any job.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { GuardRefusalData, Story, StoryTransition, TransitionInput, WrongStateData } from '#shared/types/stories'
 import { STORY_GUARDS, type StoryAction, type StoryGuard, type StoryState, type StoryTransitionRule } from '#shared/types/story-workflow'
 import { allowedActions, decideTransition, storyStateLabel } from '#shared/stories/workflow'
@@ -31,13 +32,12 @@ function toTransition(row: TransitionRow): StoryTransition {
   }
 }
 
-function transitionQuery(db: Knex | Knex.Transaction) {
+function transitionQuery(db: Db) {
   return db('story_transitions').leftJoin('users', 'users.id', 'story_transitions.user_id')
     .select('story_transitions.*', 'users.display_name')
 }
 
-export async function listTransitions(user: CurrentUser, storyId: number): Promise<StoryTransition[]> {
-  const db = useDb()
+export async function listTransitions(db: Db, user: CurrentUser, storyId: number): Promise<StoryTransition[]> {
   await requireStoryRow(db, user, storyId)
   const rows = await transitionQuery(db).where('story_transitions.story_id', storyId).orderBy('story_transitions.id') as TransitionRow[]
   return rows.map(toTransition)
@@ -147,9 +147,8 @@ export async function applyMove(trx: Knex.Transaction, row: StoryRow, move: Appl
 }
 
 /** Checks in the documented order: role 403, state 409, version 409, note 400, guards 422. */
-export async function runTransition(user: CurrentUser, storyId: number, input: TransitionInput): Promise<{ story: Story, transition: StoryTransition }> {
-  const db = useDb()
-  const transitionId = await storyTransaction(async (trx) => {
+export async function runTransition(db: Db, user: CurrentUser, storyId: number, input: TransitionInput): Promise<{ story: Story, transition: StoryTransition }> {
+  const transitionId = await storyTransaction(db, async (trx) => {
     const row = await requireStoryRow(trx, user, storyId, { lock: true })
     const own = Boolean(await trx('story_bylines').where({ story_id: storyId, user_id: user.id }).first('user_id'))
     const decision = decideTransition(input.action, row.state, user.role, own)
@@ -165,7 +164,7 @@ export async function runTransition(user: CurrentUser, storyId: number, input: T
     return applyMove(trx, row, { action: input.action, rule: decision.rule, actor: user, note, scheduledAt: input.scheduledAt ?? null })
   })
   const [story, row] = await Promise.all([
-    getStory(user, storyId),
+    getStory(db, user, storyId),
     transitionQuery(db).where('story_transitions.id', transitionId).first() as Promise<TransitionRow>,
   ])
   return { story, transition: toTransition(row) }

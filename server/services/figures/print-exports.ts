@@ -7,6 +7,7 @@ import { graphModel, requireStandaloneFigure, tableModel } from './figure-model'
 import { graphPdf, graphSvgFile, printedGraph, resultsTableCsv, resultsTablePdf } from './print-render'
 import type { FigureStory } from './story-source'
 import { getSiteSettings } from '../magazine/settings'
+import type { Db } from '../../utils/db'
 
 export const PRINT_FORMATS = ['svg', 'pdf', 'csv'] as const
 export type PrintFormat = typeof PRINT_FORMATS[number]
@@ -22,8 +23,8 @@ export const PrintFigureParams = z.object({
 })
 
 /** The print edition's column widths in millimetres (site settings). */
-export async function printColumnsMm(): Promise<PrintColumnsMm> {
-  return (await getSiteSettings()).printColumnsMm
+export async function printColumnsMm(db: Db): Promise<PrintColumnsMm> {
+  return (await getSiteSettings(db)).printColumnsMm
 }
 
 export interface PrintFile { body: Buffer | string, contentType: string, fileName: string }
@@ -63,6 +64,6 @@ export async function printFile(story: FigureStory, figure: StandaloneFigure, fo
   return { body, contentType: CONTENT_TYPES[format], fileName }
 }
 
-export async function storyPrintFile(story: FigureStory, number: number, format: PrintFormat, columns: PrintColumns): Promise<PrintFile> {
-  return printFile(story, requireStandaloneFigure(story.body, number), format, columns, await printColumnsMm())
+export async function storyPrintFile(db: Db, story: FigureStory, number: number, format: PrintFormat, columns: PrintColumns): Promise<PrintFile> {
+  return printFile(story, requireStandaloneFigure(story.body, number), format, columns, await printColumnsMm(db))
 }

@@ -3,6 +3,7 @@
 // results table as PDF and CSV), the story's photos at full size (the uploaded
 // originals; they are only for the desk) and a text file of captions and credits.
 import type { H3Event } from 'h3'
+import type { Db } from '../../utils/db'
 import archiver from 'archiver'
 import { PRINT_COLUMNS } from '#shared/figures/print-style'
 import { standaloneFigureLabel, standaloneFigures } from '#shared/figures/story-figure-list'
@@ -39,11 +40,11 @@ function captionsText(story: FigureStory, figureLines: string[], photoLines: str
 }
 
 /** Streams the story's print package as the response (the files are made one at a time). */
-export async function sendPrintPackage(event: H3Event, story: FigureStory): Promise<void> {
-  const widths = await printColumnsMm()
+export async function sendPrintPackage(db: Db, event: H3Event, story: FigureStory): Promise<void> {
+  const widths = await printColumnsMm(db)
   const figures = standaloneFigures(story.body).filter(f => printFormatsOf(f).length)
   const photos = story.photoIds.length
-    ? await useDb()<PhotoRecord>('photos').whereIn('id', story.photoIds).where('bench_test_id', story.figures.benchTestId)
+    ? await db<PhotoRecord>('photos').whereIn('id', story.photoIds).where('bench_test_id', story.figures.benchTestId)
     : []
 
   // Everything that can fail (a figure that cannot be drawn, storage away) fails

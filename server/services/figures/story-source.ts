@@ -5,6 +5,7 @@
 // of an approved or scheduled story. Only a story still being written (draft, in
 // review, sent back) is drawn from the workspace as it is now.
 import type { H3Event } from 'h3'
+import type { Db } from '../../utils/db'
 import type { StoryFigures, StoryReaderView } from '#shared/types/stories'
 import type { CurrentUser } from '#shared/types/users'
 import type { ReaderStory } from '../magazine/story'
@@ -65,25 +66,24 @@ function publishedKey(story: ReaderStory, view: StoryReaderView): string {
  * The story at this slug as the caller may read it (published; the desk also sees
  * its unpublished stories, marked as preview): 404/410 otherwise, as the page.
  */
-export async function readerFigureStory(event: H3Event, slug: string): Promise<FigureStory> {
-  const story = await findReaderStory(slug, await getCurrentUser(event))
+export async function readerFigureStory(db: Db, event: H3Event, slug: string): Promise<FigureStory> {
+  const story = await findReaderStory(db, slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  const view = await readerView(story)
+  const view = await readerView(db, story)
   return fromView(view, publishedKey(story, view))
 }
 
 /** The story's figures for its desk (bylines, editors, admins): 404 for anyone else. */
-export async function deskFigureStory(user: CurrentUser, storyId: number): Promise<FigureStory> {
-  const db = useDb()
+export async function deskFigureStory(db: Db, user: CurrentUser, storyId: number): Promise<FigureStory> {
   const row = await requireStoryRow(db, user, storyId)
-  const story = await findReaderStory(row.slug, user, db)
+  const story = await findReaderStory(db, row.slug, user)
   if (!story.preview) {
-    const view = await readerView(story, db)
+    const view = await readerView(db, story)
     return fromView(view, publishedKey(story, view))
   }
   if (row.state === 'approved' || row.state === 'scheduled') {
     const approved = await latestEdition(db, row.id)
-    if (approved) return fromView(await editionView(story, approved, db), editionKey(row.id, { number: approved.number, at: approved.approvedAt }))
+    if (approved) return fromView(await editionView(db, story, approved), editionKey(row.id, { number: approved.number, at: approved.approvedAt }))
   }
   const view = await storyReaderView(db, row, { preview: true })
   return fromView(view, rowKey(row))

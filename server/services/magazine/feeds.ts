@@ -1,5 +1,6 @@
 // RSS and the sitemap: published stories only (their published edition's words),
 // absolute URLs from BASE_URL.
+import type { Db } from '../../utils/db'
 import { escapeHtml } from '../../utils/escape-html'
 import { publicStories, publishedTextColumns } from './published'
 
@@ -23,8 +24,7 @@ const XHTML = 'http://www.w3.org/1999/xhtml'
 /** The feed's own CSP: nothing runs, only its stylesheet loads. */
 export const FEED_CSP = `default-src 'none'; style-src 'self'; img-src 'self'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'`
 
-export async function rssFeedXml(magazineName: string): Promise<string> {
-  const db = useDb()
+export async function rssFeedXml(db: Db, magazineName: string): Promise<string> {
   const rows = await publicStories(db).orderBy('stories.published_at', 'desc').orderBy('stories.id', 'desc').limit(FEED_LIMIT)
     .select('stories.slug', ...publishedTextColumns(db), 'stories.published_at', 'stories.updated_at') as FeedRow[]
   const base = appConfig().baseUrl
@@ -57,8 +57,8 @@ export async function rssFeedXml(magazineName: string): Promise<string> {
   ].join('\n')
 }
 
-export async function sitemapXml(): Promise<string> {
-  const rows = await publicStories(useDb()).orderBy('stories.published_at', 'desc').select('stories.slug', 'stories.updated_at') as Pick<FeedRow, 'slug' | 'updated_at'>[]
+export async function sitemapXml(db: Db): Promise<string> {
+  const rows = await publicStories(db).orderBy('stories.published_at', 'desc').select('stories.slug', 'stories.updated_at') as Pick<FeedRow, 'slug' | 'updated_at'>[]
   const base = appConfig().baseUrl
   const pages = ['/', '/how-we-test', '/cautions', '/about'].map(p => `  <url><loc>${escapeXml(base + p)}</loc></url>`)
   const stories = rows.map(r => `  <url><loc>${escapeXml(publicStoryUrl(r.slug))}</loc><lastmod>${new Date(r.updated_at).toISOString()}</lastmod></url>`)

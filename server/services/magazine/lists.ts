@@ -2,6 +2,7 @@
 // Ownership does not apply here; the state does (a draft is nobody's business but
 // the desk's, and the desk reads it through /api/stories).
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { z } from 'zod'
 import { ENGINE_FAMILIES, PART_TYPES, type EngineFamily, type PartType } from '#shared/types/catalog'
 import { labelOf } from '#shared/catalog/labels'
@@ -36,14 +37,14 @@ interface StoryCardRow {
   published_at: Date | string
 }
 
-const cardColumns = (db: Knex) => [
+const cardColumns = (db: Db) => [
   'stories.id', 'stories.slug', ...publishedTextColumns(db), 'stories.engine_family', 'stories.part_type',
   // Editions frozen before the hero was kept have no search title either: the row's hero then.
   db.raw('CASE WHEN edition.search_title IS NULL THEN stories.hero_photo_id ELSE edition.hero_photo_id END AS hero_photo_id'),
   'stories.published_at',
 ]
 
-export async function magazinePhotos(db: Knex, ids: readonly number[]): Promise<Map<number, StoryPhoto>> {
+export async function magazinePhotos(db: Db, ids: readonly number[]): Promise<Map<number, StoryPhoto>> {
   if (ids.length === 0) return new Map()
   const wanted = [...new Set(ids)]
   const rows = new Map((await db<PhotoRecord>('photos').whereIn('id', wanted)).map(r => [r.id, r]))
@@ -51,7 +52,7 @@ export async function magazinePhotos(db: Knex, ids: readonly number[]): Promise<
   return new Map(wanted.filter(id => rows.has(id)).map(id => [id, toStoryPhoto(rows.get(id)!)]))
 }
 
-export async function magazineBylines(db: Knex, storyIds: readonly number[]): Promise<Map<number, { userId: number, displayName: string }[]>> {
+export async function magazineBylines(db: Db, storyIds: readonly number[]): Promise<Map<number, { userId: number, displayName: string }[]>> {
   const out = new Map<number, { userId: number, displayName: string }[]>()
   if (storyIds.length === 0) return out
   const rows = await db('story_bylines').join('users', 'users.id', 'story_bylines.user_id')
@@ -62,7 +63,7 @@ export async function magazineBylines(db: Knex, storyIds: readonly number[]): Pr
   return out
 }
 
-export async function magazineTags(db: Knex, storyIds: readonly number[]): Promise<Map<number, string[]>> {
+export async function magazineTags(db: Db, storyIds: readonly number[]): Promise<Map<number, string[]>> {
   const out = new Map<number, string[]>()
   if (storyIds.length === 0) return out
   const rows = await db('story_tags').whereIn('story_id', storyIds).orderBy('position').orderBy('tag')
@@ -71,7 +72,7 @@ export async function magazineTags(db: Knex, storyIds: readonly number[]): Promi
   return out
 }
 
-async function toCards(db: Knex, rows: StoryCardRow[]): Promise<MagazineStoryCard[]> {
+async function toCards(db: Db, rows: StoryCardRow[]): Promise<MagazineStoryCard[]> {
   const ids = rows.map(r => r.id)
   const [bylines, tags, photos] = await Promise.all([
     magazineBylines(db, ids),
@@ -91,7 +92,7 @@ async function toCards(db: Knex, rows: StoryCardRow[]): Promise<MagazineStoryCar
   }))
 }
 
-async function pageOf(db: Knex, base: Knex.QueryBuilder, page: number, order: (q: Knex.QueryBuilder) => Knex.QueryBuilder = newestFirst): Promise<MagazinePage> {
+async function pageOf(db: Db, base: Knex.QueryBuilder, page: number, order: (q: Knex.QueryBuilder) => Knex.QueryBuilder = newestFirst): Promise<MagazinePage> {
   const counted = await base.clone().clearSelect().count({ n: '*' }).first() as { n: number | string } | undefined
   const total = Number(counted?.n ?? 0)
   const rows = await order(base.clone().select(cardColumns(db)))
@@ -101,7 +102,7 @@ async function pageOf(db: Knex, base: Knex.QueryBuilder, page: number, order: (q
 
 const newestFirst = (q: Knex.QueryBuilder) => q.orderBy('stories.published_at', 'desc').orderBy('stories.id', 'desc')
 
-export async function magazineHome(db: Knex = useDb()): Promise<MagazineHome> {
+export async function magazineHome(db: Db): Promise<MagazineHome> {
   const rows = await newestFirst(publicStories(db).select(cardColumns(db))).limit(MAGAZINE_PAGE_SIZE + 1) as StoryCardRow[]
   const cards = await toCards(db, rows)
   const featured = cards.find(c => c.hero) ?? cards[0] ?? null
@@ -122,25 +123,25 @@ export async function magazineHome(db: Knex = useDb()): Promise<MagazineHome> {
   }
 }
 
-export function latestStories(page: number, db: Knex = useDb()): Promise<MagazinePage> {
+export function latestStories(db: Db, page: number): Promise<MagazinePage> {
   return pageOf(db, publicStories(db), page)
 }
 
-export function storiesByEngineFamily(family: EngineFamily, page: number, db: Knex = useDb()): Promise<MagazinePage> {
+export function storiesByEngineFamily(db: Db, family: EngineFamily, page: number): Promise<MagazinePage> {
   return pageOf(db, publicStories(db).where('stories.engine_family', family), page)
 }
 
-export function storiesByPartType(type: PartType, page: number, db: Knex = useDb()): Promise<MagazinePage> {
+export function storiesByPartType(db: Db, type: PartType, page: number): Promise<MagazinePage> {
   return pageOf(db, publicStories(db).where('stories.part_type', type), page)
 }
 
-export function storiesByTag(tag: string, page: number, db: Knex = useDb()): Promise<MagazinePage> {
+export function storiesByTag(db: Db, tag: string, page: number): Promise<MagazinePage> {
   return pageOf(db, publicStories(db).whereExists(
     db('story_tags').whereRaw('story_tags.story_id = stories.id').where('story_tags.tag', tag),
   ), page)
 }
 
-export async function searchStories(q: string, page: number, db: Knex = useDb()): Promise<MagazinePage> {
+export async function searchStories(db: Db, q: string, page: number): Promise<MagazinePage> {
   const hits = searchHits(db, q)
   if (!hits) return { stories: [], page, pageSize: MAGAZINE_PAGE_SIZE, total: 0, pages: 1 }
   await catchUpSearchIndex(db)

@@ -5,6 +5,7 @@
 // again, whoever wrote it (the editor, the publish job, the demo seed, a test). A story that is no longer
 // published keeps its rows; the query only ever joins published stories.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { ENGINE_FAMILIES, PART_TYPES } from '#shared/types/catalog'
 import { labelOf } from '#shared/catalog/labels'
 import { queryTokens, storySearchTerms } from './search-terms'
@@ -24,7 +25,7 @@ interface IndexedStory {
 const INSERT_CHUNK = 500
 
 /** Takes a story's words again, inside one short transaction that holds its doc row. */
-async function indexStory(db: Knex, storyId: number): Promise<void> {
+async function indexStory(db: Db, storyId: number): Promise<void> {
   // READ COMMITTED: deleting one story's tokens must not gap-lock another story's inserts.
   await db.transaction(async (trx) => {
     // The doc row is the per-story lock: two servers catching up the same story take turns.
@@ -48,7 +49,7 @@ async function indexStory(db: Knex, storyId: number): Promise<void> {
 }
 
 /** Published stories whose words are missing or from an older version. */
-function staleStories(db: Knex): Promise<number[]> {
+function staleStories(db: Db): Promise<number[]> {
   return db('stories').leftJoin('story_search_docs', 'story_search_docs.story_id', 'stories.id')
     .where('stories.state', 'published')
     .where(q => q.whereNull('story_search_docs.story_id').orWhereRaw('story_search_docs.story_version <> stories.version'))
@@ -58,7 +59,7 @@ function staleStories(db: Knex): Promise<number[]> {
 let running: Promise<void> | null = null
 
 /** Brings the index in step with the published stories; one run at a time per process. */
-export function catchUpSearchIndex(db: Knex = useDb()): Promise<void> {
+export function catchUpSearchIndex(db: Db): Promise<void> {
   running ??= (async () => {
     try {
       for (const id of await staleStories(db)) await indexStory(db, id)
@@ -73,7 +74,7 @@ export function catchUpSearchIndex(db: Knex = useDb()): Promise<void> {
  * with a score (per word, the weight of the best place it stands; summed), as a
  * subquery to join on stories.id. Null when the query has no word to look for.
  */
-export function searchHits(db: Knex, q: string): Knex.Raw | null {
+export function searchHits(db: Db, q: string): Knex.Raw | null {
   const tokens = queryTokens(q)
   if (tokens.length === 0) return null
   // Tokens hold only letters, digits and points, so none can act as a LIKE wildcard.

@@ -1,6 +1,6 @@
 // The magazine's settings: read often (every time shown, every print export), changed
 // rarely by an admin. Each key is a row; missing or unreadable rows fall back to defaults.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { DEFAULT_SITE_SETTINGS, SiteSettingsSchema, type SiteSettingKey, type SiteSettings, type SiteSettingsPatch, type SiteSettingsView } from '#shared/types/site-settings'
 
 interface SettingRow { key: string, value: string, version: number, updated_at: Date | string, updated_by_name: string | null }
@@ -23,7 +23,7 @@ function parseValue<K extends SiteSettingKey>(key: K, raw: string): SiteSettings
   return DEFAULT_SITE_SETTINGS[key]
 }
 
-async function readRows(db: Knex | Knex.Transaction, lock = false): Promise<SettingRow[]> {
+async function readRows(db: Db, lock = false): Promise<SettingRow[]> {
   const query = db('site_settings as s').leftJoin('users as u', 'u.id', 's.updated_by')
     .select('s.key', 's.value', 's.version', 's.updated_at', 'u.display_name as updated_by_name')
   return (lock ? query.forUpdate() : query) as Promise<SettingRow[]>
@@ -49,7 +49,7 @@ function toView(rows: SettingRow[]): SiteSettingsView {
 }
 
 /** Settings, version and who changed them last (the admin page). */
-export async function getSiteSettingsView(db: Knex = useDb()): Promise<SiteSettingsView> {
+export async function getSiteSettingsView(db: Db): Promise<SiteSettingsView> {
   if (cached && Date.now() - cached.at < CACHE_MS) return cached.view
   const view = toView(await readRows(db))
   cached = { view, at: Date.now() }
@@ -57,12 +57,12 @@ export async function getSiteSettingsView(db: Knex = useDb()): Promise<SiteSetti
 }
 
 /** The magazine's settings with defaults filled in; cached for a few seconds per process. */
-export async function getSiteSettings(db: Knex = useDb()): Promise<SiteSettings> {
+export async function getSiteSettings(db: Db): Promise<SiteSettings> {
   return (await getSiteSettingsView(db)).settings
 }
 
 /** Changes some settings if nobody changed any since `version` was read; 409 otherwise. */
-export async function updateSiteSettings(actorId: number, patch: SiteSettingsPatch, db: Knex = useDb()): Promise<SiteSettingsView> {
+export async function updateSiteSettings(db: Db, actorId: number, patch: SiteSettingsPatch): Promise<SiteSettingsView> {
   const { version, ...changes } = patch
   const keys = KEYS.filter(k => changes[k] !== undefined)
   try {

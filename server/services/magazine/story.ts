@@ -2,7 +2,7 @@
 // (it was here and is gone on purpose); anything else unpublished is 404, except
 // for the desk (its bylines, editors and admins), who see it marked as a preview.
 import type { H3Event } from 'h3'
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { z } from 'zod'
 import { AnalysisQuery, type AnalysisQueryInput, type AnalysisResponse } from '#shared/types/workspace'
 import type { ReaderEdition, StoryFigures, StoryReaderView } from '#shared/types/stories'
@@ -33,7 +33,7 @@ type StoryRow = Omit<StoryRowFull, 'engine_family' | 'part_type' | 'state'> & {
 
 export interface ReaderStory { row: StoryRow, preview: boolean }
 
-async function mayPreview(db: Knex, user: CurrentUser | null, storyId: number): Promise<boolean> {
+async function mayPreview(db: Db, user: CurrentUser | null, storyId: number): Promise<boolean> {
   if (!user) return false
   if (user.role === 'editor' || user.role === 'admin') return true
   if (!rolesAtLeast('writer').includes(user.role)) return false
@@ -41,7 +41,7 @@ async function mayPreview(db: Knex, user: CurrentUser | null, storyId: number): 
 }
 
 /** The story for this slug as the caller may read it, or the 404/410 a reader gets. */
-export async function findReaderStory(slug: string, user: CurrentUser | null, db: Knex = useDb()): Promise<ReaderStory> {
+export async function findReaderStory(db: Db, slug: string, user: CurrentUser | null): Promise<ReaderStory> {
   const row = await db<StoryRow>('stories').where({ slug }).first()
   if (!row) notFound('No such story.')
   if (row.state === 'published') return { row, preview: false }
@@ -58,7 +58,7 @@ export interface ReaderSource {
   edition: Edition | null
 }
 
-async function freezeMissingEdition(db: Knex, row: StoryRow): Promise<Edition> {
+async function freezeMissingEdition(db: Db, row: StoryRow): Promise<Edition> {
   // A story put live before editions existed (or by hand): its edition is frozen the
   // first time a reader asks, once; a second server asking at the same moment loses
   // the unique key and reads the winner's.
@@ -77,7 +77,7 @@ async function freezeMissingEdition(db: Knex, row: StoryRow): Promise<Edition> {
   return edition
 }
 
-export async function readerSource(story: ReaderStory, db: Knex = useDb()): Promise<ReaderSource> {
+export async function readerSource(db: Db, story: ReaderStory): Promise<ReaderSource> {
   const { row } = story
   if (story.preview) {
     const data = await liveStoryData(db, row)
@@ -88,15 +88,15 @@ export async function readerSource(story: ReaderStory, db: Knex = useDb()): Prom
 }
 
 /** The story's analysis with the reader's standard and units; null with a reason when there is none. */
-export async function readerAnalysis(story: ReaderStory, query: AnalysisQueryInput, db: Knex = useDb()): Promise<{ analysis: AnalysisResponse | null, problem: string | null, source: ReaderSource }> {
-  const source = await readerSource(story, db)
+export async function readerAnalysis(db: Db, story: ReaderStory, query: AnalysisQueryInput): Promise<{ analysis: AnalysisResponse | null, problem: string | null, source: ReaderSource }> {
+  const source = await readerSource(db, story)
   const figures = figuresOf(source.data, source.hash, { standard: query.standard, units: query.units, photos: [] })
   return { analysis: figures.analysis, problem: figures.analysisProblem, source }
 }
 
 /** The figures' numbers in another correction standard and units (graphs and tables; prose keeps the edition's). */
-export async function readerFigures(story: ReaderStory, query: ReaderAnalysisInput, db: Knex = useDb()): Promise<Pick<StoryReaderView['figures'], 'analysis' | 'analysisProblem' | 'comparisons'>> {
-  const { analysis, problem, source } = await readerAnalysis(story, query, db)
+export async function readerFigures(db: Db, story: ReaderStory, query: ReaderAnalysisInput): Promise<Pick<StoryReaderView['figures'], 'analysis' | 'analysisProblem' | 'comparisons'>> {
+  const { analysis, problem, source } = await readerAnalysis(db, story, query)
   const comparisons = analysis ? figuresOf(source.data, source.hash, { standard: query.standard, units: query.units, photos: [] }).comparisons : []
   return { analysis, analysisProblem: problem, comparisons }
 }
@@ -115,17 +115,17 @@ onStoryCacheDropped((slug) => {
 })
 
 /** The story at this slug for this request's user, as GET /api/magazine/stories/<slug> answers. */
-export async function readerStoryFor(event: H3Event, slug: string): Promise<MagazineStoryResponse> {
-  const story = await findReaderStory(slug, await getCurrentUser(event))
+export async function readerStoryFor(db: Db, event: H3Event, slug: string): Promise<MagazineStoryResponse> {
+  const story = await findReaderStory(db, slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  return readerView(story)
+  return readerView(db, story)
 }
 
 // The view exactly as JSON carries it (dates as strings), frozen once it is shared:
 // server renders use the kept object itself, so nothing may change it in place.
 const asJson = (view: MagazineStoryResponse): MagazineStoryResponse => JSON.parse(JSON.stringify(view))
 
-export async function readerView(story: ReaderStory, db: Knex = useDb()): Promise<MagazineStoryResponse> {
+export async function readerView(db: Db, story: ReaderStory): Promise<MagazineStoryResponse> {
   if (story.preview) return asJson(await buildReaderView(story, db))
   const key = `${story.row.id}:${story.row.version}:${new Date(story.row.updated_at).getTime()}`
   const kept = publishedViews.get(key)
@@ -139,13 +139,13 @@ export async function readerView(story: ReaderStory, db: Knex = useDb()): Promis
  * The page's view of one given edition: the desk's exports of an approved or
  * scheduled story draw what was approved, not the workspace as it is now.
  */
-export async function editionView(story: ReaderStory, edition: Edition, db: Knex = useDb()): Promise<MagazineStoryResponse> {
+export async function editionView(db: Db, story: ReaderStory, edition: Edition): Promise<MagazineStoryResponse> {
   return asJson(await buildReaderView(story, db, { data: edition.data, hash: edition.contentHash, text: edition, edition }))
 }
 
-async function buildReaderView(story: ReaderStory, db: Knex, given?: ReaderSource): Promise<MagazineStoryResponse> {
+async function buildReaderView(story: ReaderStory, db: Db, given?: ReaderSource): Promise<MagazineStoryResponse> {
   const { row } = story
-  const source = given ?? await readerSource(story, db)
+  const source = given ?? await readerSource(db, story)
   const { data, text, edition } = source
   // Hero first, then the body's photos in the order the text places them: the gallery's order.
   const [bylines, tags, photos, editions] = await Promise.all([

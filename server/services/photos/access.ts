@@ -1,4 +1,4 @@
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { rolesAtLeast } from '#shared/accounts/roles'
 import type { CurrentUser } from '#shared/types/users'
 import { photoInPublishedStory } from '../stories/photos'
@@ -33,22 +33,22 @@ export interface PhotoRecord {
 }
 
 /** Photos this user may reach: those of the bench tests in their scope (visibleBenchTests). */
-export function visiblePhotos(db: Knex | Knex.Transaction, user: CurrentUser) {
+export function visiblePhotos(db: Db, user: CurrentUser) {
   return visibleBenchTests(db, user)
     .join('photos', 'photos.bench_test_id', 'bench_tests.id')
     .select<PhotoRecord[]>('photos.*')
 }
 
 /** The photo, or 404 when it does not exist or its bench test is not this user's to reach. */
-export async function requirePhoto(user: CurrentUser, id: number, db: Knex | Knex.Transaction = useDb()): Promise<PhotoRecord> {
+export async function requirePhoto(db: Db, user: CurrentUser, id: number): Promise<PhotoRecord> {
   const row = await visiblePhotos(db, user).where('photos.id', id).first()
   if (!row) notFound('No such photo.')
   return row as PhotoRecord
 }
 
 /** A photo anyone may see: one a published story uses (hero or in its body). */
-export async function photoIsPublic(photoId: number): Promise<boolean> {
-  return photoInPublishedStory(photoId)
+export async function photoIsPublic(db: Db, photoId: number): Promise<boolean> {
+  return photoInPublishedStory(db, photoId)
 }
 
 /**
@@ -56,12 +56,12 @@ export async function photoIsPublic(photoId: number): Promise<boolean> {
  * own bench tests, editors and admins) sees everything including the original;
  * anyone else sees the web sizes of a public photo; otherwise null (404).
  */
-export async function findReadablePhoto(user: CurrentUser | null, id: number): Promise<{ row: PhotoRecord, desk: boolean } | null> {
+export async function findReadablePhoto(db: Db, user: CurrentUser | null, id: number): Promise<{ row: PhotoRecord, desk: boolean } | null> {
   if (user && rolesAtLeast('writer').includes(user.role)) {
-    const row = await visiblePhotos(useDb(), user).where('photos.id', id).first()
+    const row = await visiblePhotos(db, user).where('photos.id', id).first()
     if (row) return { row: row as PhotoRecord, desk: true }
   }
-  if (!await photoIsPublic(id)) return null
-  const row = await useDb()<PhotoRecord>('photos').where({ id }).first()
+  if (!await photoIsPublic(db, id)) return null
+  const row = await db<PhotoRecord>('photos').where({ id }).first()
   return row ? { row, desk: false } : null
 }

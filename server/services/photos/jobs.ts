@@ -1,4 +1,5 @@
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { PHOTO_JPEG_QUALITY, PHOTO_WIDTHS } from '#shared/types/photos'
 import type { JobRow } from '../../utils/jobs'
 import type { PhotoRecord } from './access'
@@ -28,14 +29,13 @@ export async function enqueuePhotoJob(trx: Knex.Transaction, photoId: number): P
   return enqueueJob(trx, photoJobKind(), { photoId }, { maxAttempts: 3 })
 }
 
-async function renewJobLease(jobId: number, seconds: number): Promise<void> {
-  await useDb()('jobs').where({ id: jobId, status: 'running' }).update({ lease_until: useDb().raw('NOW(3) + INTERVAL ? SECOND', [seconds]) })
+async function renewJobLease(db: Db, jobId: number, seconds: number): Promise<void> {
+  await db('jobs').where({ id: jobId, status: 'running' }).update({ lease_until: db.raw('NOW(3) + INTERVAL ? SECOND', [seconds]) })
 }
 
 /** Sizes one photo: original from S3, sizes in a worker, sizes to S3, then the row says ready. */
-export async function processPhotoJob(job: JobRow): Promise<void> {
+export async function processPhotoJob(db: Db, job: JobRow): Promise<void> {
   const photoId = Number((job.payload as { photoId?: unknown } | null)?.photoId)
-  const db = useDb()
   const photo = await db<PhotoRecord>('photos').where({ id: photoId }).first()
   if (!photo) return // deleted while it waited
   if (job.attempts > job.max_attempts) {
@@ -76,20 +76,20 @@ function failureText(error: unknown): string {
   return 'Processing failed because storage or the database did not answer. Try again in a moment.'
 }
 
-async function runClaimedPhotoJob(job: JobRow): Promise<void> {
+async function runClaimedPhotoJob(db: Db, job: JobRow): Promise<void> {
   const lease = leaseSeconds()
-  const renewal = setInterval(() => { renewJobLease(job.id, lease).catch(() => { /* next tick tries again */ }) }, (lease * 1000) / 3)
+  const renewal = setInterval(() => { renewJobLease(db, job.id, lease).catch(() => { /* next tick tries again */ }) }, (lease * 1000) / 3)
   renewal.unref()
   const photoId = Number((job.payload as { photoId?: unknown } | null)?.photoId)
   try {
-    await processPhotoJob(job)
+    await processPhotoJob(db, job)
     await finishJob(job.id)
   }
   catch (error) {
     if (!(error instanceof PhotoTaskError)) console.error(`photo job ${job.id} (photo ${photoId}):`, error)
     const permanent = error instanceof PhotoTaskError && error.permanent
     const outcome = await failJob(permanent ? { ...job, attempts: job.max_attempts } : job, error, retryDelaySeconds(job.attempts))
-    await useDb()('photos').where({ id: photoId }).update(outcome === 'failed'
+    await db('photos').where({ id: photoId }).update(outcome === 'failed'
       ? { status: 'failed', failure_reason: failureText(error) }
       : { status: 'pending', failure_reason: null })
   }
@@ -102,17 +102,20 @@ async function runClaimedPhotoJob(job: JobRow): Promise<void> {
 let active = 0
 let filling = false
 let loopStarted = false
+// The loop's connection, given by whoever starts it (nudges from uploads use it too).
+let loopDb: Db | undefined
 
 /** Claims jobs while the pool has room; each finished job looks for the next. */
 async function fillPhotoPool(): Promise<void> {
-  if (filling || !loopStarted) return
+  if (filling || !loopStarted || !loopDb) return
+  const db = loopDb
   filling = true
   try {
     while (active < photoPoolSize()) {
       const job = await claimJob([photoJobKind()], leaseSeconds())
       if (!job) break
       active++
-      void runClaimedPhotoJob(job).finally(() => {
+      void runClaimedPhotoJob(db, job).finally(() => {
         active--
         void fillPhotoPool()
       })
@@ -125,7 +128,8 @@ async function fillPhotoPool(): Promise<void> {
 }
 
 /** Starts polling (server/plugins/photo-jobs.ts); returns the stop function. */
-export function startPhotoJobLoop(intervalMs = Number(process.env.PHOTO_POLL_MS ?? 1000)): () => void {
+export function startPhotoJobLoop(db: Db, intervalMs = Number(process.env.PHOTO_POLL_MS ?? 1000)): () => void {
+  loopDb = db
   loopStarted = true
   const timer = setInterval(() => { void fillPhotoPool() }, intervalMs)
   timer.unref()

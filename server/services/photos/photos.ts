@@ -1,4 +1,5 @@
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { Photo, PhotoConflictData, PhotoGallery, PhotoMime, PhotoMissingAltText, PhotoUploadResult, PhotoVariant, UpdatePhotoBody } from '#shared/types/photos'
 import type { CurrentUser } from '#shared/types/users'
 import type { z } from 'zod'
@@ -64,14 +65,14 @@ export function toPhoto(row: PhotoRecord): Photo {
 
 const galleryOrder = (q: Knex.QueryBuilder) => q.orderBy('photos.position').orderBy('photos.id')
 
-export async function listPhotos(user: CurrentUser, benchTestId: number): Promise<PhotoGallery> {
-  const benchTest = await requireBenchTest(user, benchTestId)
-  const rows = await galleryOrder(useDb()('photos').where('bench_test_id', benchTest.id)) as PhotoRecord[]
-  return { benchTest: { id: benchTest.id, title: benchTest.title }, photos: rows.map(toPhoto), missingAltText: await photosMissingAltText(benchTest.id) }
+export async function listPhotos(db: Db, user: CurrentUser, benchTestId: number): Promise<PhotoGallery> {
+  const benchTest = await requireBenchTest(db, user, benchTestId)
+  const rows = await galleryOrder(db('photos').where('bench_test_id', benchTest.id)) as PhotoRecord[]
+  return { benchTest: { id: benchTest.id, title: benchTest.title }, photos: rows.map(toPhoto), missingAltText: await photosMissingAltText(db, benchTest.id) }
 }
 
-function findSameFile(benchTestId: number, sha256: string): Promise<PhotoRecord | undefined> {
-  return useDb()<PhotoRecord>('photos').where({ bench_test_id: benchTestId, sha256 }).first()
+function findSameFile(db: Db, benchTestId: number, sha256: string): Promise<PhotoRecord | undefined> {
+  return db<PhotoRecord>('photos').where({ bench_test_id: benchTestId, sha256 }).first()
 }
 
 /**
@@ -80,7 +81,7 @@ function findSameFile(benchTestId: number, sha256: string): Promise<PhotoRecord 
  * the insert fails the object is deleted again. The same file twice in one bench
  * test answers with the photo already there.
  */
-export async function storeUploadedPhoto(user: CurrentUser, benchTestId: number, upload: PhotoUpload): Promise<PhotoUploadResult> {
+export async function storeUploadedPhoto(db: Db, user: CurrentUser, benchTestId: number, upload: PhotoUpload): Promise<PhotoUploadResult> {
   let inspected: InspectedPhoto
   try {
     inspected = inspectPhotoBytes(upload.bytes)
@@ -91,14 +92,14 @@ export async function storeUploadedPhoto(user: CurrentUser, benchTestId: number,
     }
     throw error
   }
-  const existing = await findSameFile(benchTestId, upload.sha256)
+  const existing = await findSameFile(db, benchTestId, upload.sha256)
   if (existing) return { photo: toPhoto(existing), duplicate: true }
 
   const prefix = newPhotoPrefix(benchTestId)
   const originalKey = photoOriginalKey(prefix)
   await whilePhotoStorageAnswers(() => putPhotoObject(originalKey, upload.bytes, inspected.mime))
   try {
-    const id = await useDb().transaction(async (trx) => {
+    const id = await db.transaction(async (trx) => {
       // Uploads side by side into one bench test take their places one after the other.
       await trx('bench_tests').where({ id: benchTestId }).forUpdate().first('id')
       const last = await trx('photos').where('bench_test_id', benchTestId).max({ position: 'position' }).first()
@@ -122,13 +123,13 @@ export async function storeUploadedPhoto(user: CurrentUser, benchTestId: number,
       return Number(id)
     })
     nudgePhotoJobs()
-    const row = await useDb()<PhotoRecord>('photos').where({ id }).first()
+    const row = await db<PhotoRecord>('photos').where({ id }).first()
     return { photo: toPhoto(row!), duplicate: false }
   }
   catch (error) {
     await deletePhotoObjects([originalKey]).catch(() => { /* left for the orphan sweep */ })
     if (isDuplicateEntry(error)) {
-      const raced = await findSameFile(benchTestId, upload.sha256)
+      const raced = await findSameFile(db, benchTestId, upload.sha256)
       if (raced) return { photo: toPhoto(raced), duplicate: true }
     }
     throw error
@@ -151,9 +152,9 @@ function staleEdit(current: PhotoRecord): never {
 }
 
 /** Caption, credit, alt text, order and hero flag; the version read must still be current (else 409). */
-export async function updatePhotoMeta(user: CurrentUser, id: number, body: z.output<typeof UpdatePhotoBody>): Promise<Photo> {
-  const row = await useDb().transaction(async (trx) => {
-    const photo = await requirePhoto(user, id, trx)
+export async function updatePhotoMeta(db: Db, user: CurrentUser, id: number, body: z.output<typeof UpdatePhotoBody>): Promise<Photo> {
+  const row = await db.transaction(async (trx) => {
+    const photo = await requirePhoto(trx, user, id)
     const patch: Record<string, unknown> = {}
     if (body.caption !== undefined) patch.caption = body.caption
     if (body.credit !== undefined) patch.credit = body.credit
@@ -170,9 +171,9 @@ export async function updatePhotoMeta(user: CurrentUser, id: number, body: z.out
 }
 
 /** Deletes the row first (an object without a row is harmless and swept), then every object under its prefix. */
-export async function deletePhoto(user: CurrentUser, id: number): Promise<void> {
-  const photo = await requirePhoto(user, id)
-  await useDb()('photos').where({ id: photo.id }).delete()
+export async function deletePhoto(db: Db, user: CurrentUser, id: number): Promise<void> {
+  const photo = await requirePhoto(db, user, id)
+  await db('photos').where({ id: photo.id }).delete()
   try {
     const objects = await listPhotoObjects(`${photo.storage_prefix}/`)
     await deletePhotoObjects(objects.map(o => o.key))
@@ -183,21 +184,21 @@ export async function deletePhoto(user: CurrentUser, id: number): Promise<void> 
 }
 
 /** A failed photo goes back in the queue; anything else is refused (409). */
-export async function retryPhoto(user: CurrentUser, id: number): Promise<Photo> {
-  const photo = await requirePhoto(user, id)
+export async function retryPhoto(db: Db, user: CurrentUser, id: number): Promise<Photo> {
+  const photo = await requirePhoto(db, user, id)
   if (photo.status !== 'failed') {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Only a photo whose processing failed can be tried again.', data: { current: toPhoto(photo) } })
   }
-  await useDb().transaction(async (trx) => {
+  await db.transaction(async (trx) => {
     await trx('photos').where({ id, status: 'failed' }).update({ status: 'pending', failure_reason: null })
     await enqueuePhotoJob(trx, id)
   })
   nudgePhotoJobs()
-  return toPhoto((await useDb()<PhotoRecord>('photos').where({ id }).first())!)
+  return toPhoto((await db<PhotoRecord>('photos').where({ id }).first())!)
 }
 
 /** For issue 6: a story may go to review only when every photo of its bench test has alt text. */
-export async function photosMissingAltText(benchTestId: number, db: Knex | Knex.Transaction = useDb()): Promise<PhotoMissingAltText[]> {
+export async function photosMissingAltText(db: Db, benchTestId: number): Promise<PhotoMissingAltText[]> {
   const rows = await galleryOrder(db('photos').where('bench_test_id', benchTestId).where('alt_text', '').select('id', 'original_name')) as { id: number, original_name: string }[]
   return rows.map(r => ({ id: r.id, originalName: r.original_name }))
 }

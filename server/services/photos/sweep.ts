@@ -1,3 +1,4 @@
+import type { Db } from '../../utils/db'
 import type { PhotoRecord } from './access'
 import { enqueuePhotoJob, nudgePhotoJobs } from './jobs'
 import { parseStoredVariants } from './photos'
@@ -19,10 +20,10 @@ export interface PhotoSweepReport {
  * period are touched: an upload puts its object a moment before its row exists,
  * and a job puts sizes a moment before the row lists them.
  */
-export async function sweepPhotoStorage(graceSeconds = 3600): Promise<PhotoSweepReport> {
+export async function sweepPhotoStorage(db: Db, graceSeconds = 3600): Promise<PhotoSweepReport> {
   const cutoff = Date.now() - graceSeconds * 1000
   const objects = await listPhotoObjects()
-  const rows = await useDb()<PhotoRecord>('photos').select('id', 'status', 'storage_prefix', 'original_key', 'variants', 'created_at', 'processed_at')
+  const rows = await db<PhotoRecord>('photos').select('id', 'status', 'storage_prefix', 'original_key', 'variants', 'created_at', 'processed_at')
   const present = new Set(objects.map(o => o.key))
   const prefixes = new Set(rows.map(r => `${r.storage_prefix}/`))
   const prefixOf = (key: string) => key.slice(0, key.lastIndexOf('/') + 1)
@@ -36,13 +37,13 @@ export async function sweepPhotoStorage(graceSeconds = 3600): Promise<PhotoSweep
     if (new Date(row.created_at).getTime() >= cutoff) continue
     if (!present.has(row.original_key)) {
       if (row.status === 'failed') continue
-      await useDb()('photos').where({ id: row.id }).update({ status: 'failed', failure_reason: 'The uploaded file is missing from storage. Delete this photo and upload it again.' })
+      await db('photos').where({ id: row.id }).update({ status: 'failed', failure_reason: 'The uploaded file is missing from storage. Delete this photo and upload it again.' })
       originalsMissing++
       continue
     }
     const sizedLongAgo = row.processed_at && new Date(row.processed_at).getTime() < cutoff
     if (row.status === 'ready' && sizedLongAgo && parseStoredVariants(row.variants).some(v => !present.has(v.key))) {
-      await useDb().transaction(async (trx) => {
+      await db.transaction(async (trx) => {
         await trx('photos').where({ id: row.id, status: 'ready' }).update({ status: 'pending' })
         await enqueuePhotoJob(trx, row.id)
       })

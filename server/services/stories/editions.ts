@@ -5,6 +5,7 @@
 // either by shared/utils/story-view.ts, so the desk and readers see the same numbers.
 import { createHash } from 'node:crypto'
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { STORY_DATA_FORMAT, type StoryData, type StoryEditionStatus, type StoryEditionSummary } from '#shared/types/story-data'
 import type { CurrentUser } from '#shared/types/users'
 import type { StoryFigures, StoryPhoto } from '#shared/types/stories'
@@ -22,8 +23,6 @@ import { toBenchTest } from '../workspace/bench-test-core'
 import { getBuildSheet } from '../workspace/build-sheets'
 import { getDayView } from '../workspace/dyno-day'
 import { listSetups } from '../workspace/setups'
-
-type Db = Knex | Knex.Transaction
 
 type TextRow = Pick<StoryRow, 'id' | 'bench_test_id' | 'body' | 'hero_photo_id'>
 
@@ -239,8 +238,7 @@ export async function publishLatestEdition(trx: Knex.Transaction, row: StoryRow,
  * The story's editions, and whether what an approval froze still holds: the live data
  * for the approved text against the edition's, with every figure whose value moves.
  */
-export async function storyEditionStatus(user: CurrentUser, storyId: number): Promise<StoryEditionStatus> {
-  const db = useDb()
+export async function storyEditionStatus(db: Db, user: CurrentUser, storyId: number): Promise<StoryEditionStatus> {
   const row = await requireStoryRow(db, user, storyId)
   const [current, published, editions] = await Promise.all([latestEdition(db, row.id), publishedEdition(db, row.id), listEditions(db, row.id)])
   if (!current) return { current: null, published: null, dataChanged: false, textChanged: false, moved: [], editions }

@@ -2,7 +2,7 @@
 // hp and lb-ft, the bench test's default standard) plus the gains of every ordered
 // pair of setups, so an inline value may compare any two. The story grants access
 // to its bench test's figures, whoever owns the bench test.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { EngineFamily, PartType } from '#shared/types/catalog'
 import type { NumberCheckResult, StoryFigures, StoryPhoto, StoryReaderView } from '#shared/types/stories'
 import type { CurrentUser } from '#shared/types/users'
@@ -15,8 +15,6 @@ import { toStoryPhoto } from './photos'
 import { requireStoryRow, type StoryRow, storySummaries } from './stories'
 import { seesAllBenchTests } from '../workspace/bench-test-access'
 import { listSetups } from '../workspace/setups'
-
-type Db = Knex | Knex.Transaction
 
 export interface FigureOptions {
   /** 'bench': every photo of the bench test (the editor's picker); 'used': only those the story uses (readers). */
@@ -49,14 +47,12 @@ export async function storyFigures(db: Db, row: StoryRow, opts: FigureOptions): 
   return { ...figures, ...(live ? { setups: live, benchSetups } : {}), ...dayReport, problems }
 }
 
-export async function getStoryFigures(user: CurrentUser, storyId: number, uses?: SetupsUsed): Promise<StoryFigures> {
-  const db = useDb()
+export async function getStoryFigures(db: Db, user: CurrentUser, storyId: number, uses?: SetupsUsed): Promise<StoryFigures> {
   return storyFigures(db, await requireStoryRow(db, user, storyId), { photos: 'bench', uses })
 }
 
 /** The number check of the story's current text; an editor opening it records it as seen for this version. */
-export async function runNumberCheck(user: CurrentUser, storyId: number): Promise<NumberCheckResult> {
-  const db = useDb()
+export async function runNumberCheck(db: Db, user: CurrentUser, storyId: number): Promise<NumberCheckResult> {
   const row = await requireStoryRow(db, user, storyId)
   const figures = await storyFigures(db, row, { photos: 'used' })
   let candidates: ReturnType<typeof figureCandidates> = []

@@ -2,12 +2,12 @@
 import type { DeskQueueItem, MyStoriesResponse, StorySummary } from '#shared/types/stories'
 import { STORY_STATE_IDS, type StoryState } from '#shared/types/story-workflow'
 import type { CurrentUser } from '#shared/types/users'
+import type { Db } from '../../utils/db'
 import { type StoryRow, storySummaries, visibleStories } from './stories'
 
 const likeEscaped = (q: string) => `%${q.replace(/[\\%_]/g, c => `\\${c}`)}%`
 
-export async function listStories(user: CurrentUser, query: { state?: StoryState, benchTestId?: number, q?: string }): Promise<StorySummary[]> {
-  const db = useDb()
+export async function listStories(db: Db, user: CurrentUser, query: { state?: StoryState, benchTestId?: number, q?: string }): Promise<StorySummary[]> {
   const rows = visibleStories(db, user).select('stories.*').orderBy('stories.updated_at', 'desc').orderBy('stories.id', 'desc').limit(500)
   if (query.state) rows.where('stories.state', query.state)
   if (query.benchTestId) rows.where('stories.bench_test_id', query.benchTestId)
@@ -16,8 +16,7 @@ export async function listStories(user: CurrentUser, query: { state?: StoryState
 }
 
 /** Stories in one desk state, the longest waiting first, with who sent them and open threads. */
-export async function deskQueue(user: CurrentUser, state: StoryState): Promise<DeskQueueItem[]> {
-  const db = useDb()
+export async function deskQueue(db: Db, user: CurrentUser, state: StoryState): Promise<DeskQueueItem[]> {
   const rows = await visibleStories(db, user).where('stories.state', state)
     .orderBy('stories.state_changed_at').orderBy('stories.id')
     .select('stories.*', db.raw('TIMESTAMPDIFF(SECOND, stories.state_changed_at, NOW(3)) AS age_seconds')) as (StoryRow & { age_seconds: number })[]
@@ -46,8 +45,7 @@ export async function deskQueue(user: CurrentUser, state: StoryState): Promise<D
 }
 
 /** Stories the user is a byline of (editors too), with a count per state. */
-export async function myStories(user: CurrentUser, state?: StoryState): Promise<MyStoriesResponse> {
-  const db = useDb()
+export async function myStories(db: Db, user: CurrentUser, state?: StoryState): Promise<MyStoriesResponse> {
   const mine = () => db<StoryRow>('stories').join('story_bylines', 'story_bylines.story_id', 'stories.id').where('story_bylines.user_id', user.id)
   const [rows, countRows] = await Promise.all([
     mine().modify((q) => { if (state) q.where('stories.state', state) }).orderBy('stories.updated_at', 'desc').select('stories.*') as Promise<StoryRow[]>,

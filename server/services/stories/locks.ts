@@ -1,7 +1,7 @@
 // The soft editing lock: who has a story open, since when. A heartbeat keeps it;
 // without one it lapses after LOCK_EXPIRES_SECONDS. It informs and never blocks a
 // save (the version check does that).
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { LOCK_EXPIRES_SECONDS, type LockResponse, type StoryLock } from '#shared/types/stories'
 import type { CurrentUser } from '#shared/types/users'
 import { mayEditContent } from '#shared/stories/workflow'
@@ -20,7 +20,7 @@ export function toStoryLock(row: LockRow): StoryLock {
 }
 
 /** Locks still alive on these stories (expired rows are ignored, not deleted). */
-export function liveLockRows(db: Knex | Knex.Transaction, storyIds: number[]): Promise<LockRow[]> {
+export function liveLockRows(db: Db, storyIds: number[]): Promise<LockRow[]> {
   return db('story_locks').join('users', 'users.id', 'story_locks.user_id')
     .whereIn('story_locks.story_id', storyIds)
     .where('story_locks.expires_at', '>', db.raw('NOW(3)'))
@@ -33,8 +33,7 @@ export function liveLockRows(db: Knex | Knex.Transaction, storyIds: number[]): P
  * byline writer looking at a story with the desk (or published) sees who holds it,
  * and asking to take it over is refused (409).
  */
-export async function takeStoryLock(user: CurrentUser, storyId: number, takeOver = false): Promise<LockResponse> {
-  const db = useDb()
+export async function takeStoryLock(db: Db, user: CurrentUser, storyId: number, takeOver = false): Promise<LockResponse> {
   const story = await requireStoryRow(db, user, storyId)
   const own = await db('story_bylines').where({ story_id: storyId, user_id: user.id }).first('user_id')
   if (!mayEditContent(story.state, user.role, Boolean(own))) {
@@ -73,8 +72,7 @@ export async function takeStoryLock(user: CurrentUser, storyId: number, takeOver
 }
 
 /** Releases the lock if it is this user's. */
-export async function releaseStoryLock(user: CurrentUser, storyId: number): Promise<LockResponse> {
-  const db = useDb()
+export async function releaseStoryLock(db: Db, user: CurrentUser, storyId: number): Promise<LockResponse> {
   await requireStoryRow(db, user, storyId)
   await db('story_locks').where({ story_id: storyId, user_id: user.id }).delete()
   const [lock] = await liveLockRows(db, [storyId])

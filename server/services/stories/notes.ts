@@ -1,6 +1,7 @@
 // Notes between the desk and the writers, threaded one level deep: a reply hangs on
 // the first note of its thread, and a thread is resolved (or reopened) as a whole.
 import type { z } from 'zod'
+import type { Db } from '../../utils/db'
 import type { CreateNoteBody, NoteListResponse, StoryNote, StoryNoteThread, UpdateNoteBody } from '#shared/types/stories'
 import type { Role } from '#shared/types/roles'
 import type { CurrentUser } from '#shared/types/users'
@@ -40,8 +41,7 @@ function toNote(row: NoteRow): StoryNote {
   }
 }
 
-function noteQuery(storyId: number) {
-  const db = useDb()
+function noteQuery(db: Db, storyId: number) {
   return db('story_notes')
     .join('users as author', 'author.id', 'story_notes.author_id')
     .leftJoin('users as resolver', 'resolver.id', 'story_notes.resolved_by')
@@ -49,21 +49,21 @@ function noteQuery(storyId: number) {
     .select('story_notes.*', 'author.display_name as author_name', 'author.role as author_role', 'resolver.display_name as resolver_name')
 }
 
-export async function listNotes(user: CurrentUser, storyId: number): Promise<NoteListResponse> {
-  await requireStoryRow(useDb(), user, storyId)
-  const notes = (await noteQuery(storyId).orderBy('story_notes.id') as NoteRow[]).map(toNote)
+export async function listNotes(db: Db, user: CurrentUser, storyId: number): Promise<NoteListResponse> {
+  await requireStoryRow(db, user, storyId)
+  const notes = (await noteQuery(db, storyId).orderBy('story_notes.id') as NoteRow[]).map(toNote)
   const threads: StoryNoteThread[] = notes.filter(n => n.parentId === null).map(n => ({ ...n, replies: notes.filter(r => r.parentId === n.id) }))
   return { threads, openThreads: threads.filter(t => !t.resolved).length }
 }
 
-async function findNote(storyId: number, noteId: number): Promise<StoryNote> {
-  const row = await noteQuery(storyId).where('story_notes.id', noteId).first() as NoteRow | undefined
+async function findNote(db: Db, storyId: number, noteId: number): Promise<StoryNote> {
+  const row = await noteQuery(db, storyId).where('story_notes.id', noteId).first() as NoteRow | undefined
   if (!row) notFound('No such note on this story.')
   return toNote(row)
 }
 
-export async function addNote(user: CurrentUser, storyId: number, input: z.output<typeof CreateNoteBody>): Promise<StoryNote> {
-  const id = await storyTransaction(async (trx) => {
+export async function addNote(db: Db, user: CurrentUser, storyId: number, input: z.output<typeof CreateNoteBody>): Promise<StoryNote> {
+  const id = await storyTransaction(db, async (trx) => {
     const story = await requireStoryRow(trx, user, storyId)
     let threadId: number | null = null
     if (input.parentId !== undefined) {
@@ -78,14 +78,13 @@ export async function addNote(user: CurrentUser, storyId: number, input: z.outpu
     await mailNote(trx, { storyId, headline: story.headline, author: { id: user.id, name: user.displayName }, authorIsByline: isByline, body: input.body })
     return Number(noteId)
   })
-  return findNote(storyId, id)
+  return findNote(db, storyId, id)
 }
 
 /** Resolving works on the thread (a reply's thread is resolved through its first note); text edits only by the author. */
-export async function updateNote(user: CurrentUser, storyId: number, noteId: number, input: z.output<typeof UpdateNoteBody>): Promise<StoryNote> {
-  const db = useDb()
+export async function updateNote(db: Db, user: CurrentUser, storyId: number, noteId: number, input: z.output<typeof UpdateNoteBody>): Promise<StoryNote> {
   await requireStoryRow(db, user, storyId)
-  const note = await findNote(storyId, noteId)
+  const note = await findNote(db, storyId, noteId)
   if (input.body !== undefined) {
     if (note.author.userId !== user.id) throw httpError(403, 'Only the author of a note can change its text.')
     await db('story_notes').where({ id: noteId }).update({ body: input.body, edited_at: db.raw('NOW(3)') })
@@ -95,7 +94,7 @@ export async function updateNote(user: CurrentUser, storyId: number, noteId: num
     await db('story_notes').where({ id: threadId }).update(input.resolved
       ? { resolved: true, resolved_by: user.id, resolved_at: db.raw('NOW(3)') }
       : { resolved: false, resolved_by: null, resolved_at: null })
-    return findNote(storyId, threadId)
+    return findNote(db, storyId, threadId)
   }
-  return findNote(storyId, noteId)
+  return findNote(db, storyId, noteId)
 }

@@ -1,14 +1,13 @@
 // The photos a story uses: its hero and every ::photo / ::gallery in its body, kept
 // in story_photos on every save so "is this photo public?" is one indexed query.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { PhotoMissingAltText } from '#shared/types/photos'
 import type { StoryPhoto } from '#shared/types/stories'
 import { photosUsed } from '#shared/utils/story-body'
 import type { PhotoRecord } from '../photos/access'
 import { toPhoto } from '../photos/photos'
 import type { StoryRow } from './stories'
-
-type Db = Knex | Knex.Transaction
 
 /** Hero first, then the body's photos in order; only ids of the story's bench test count. */
 export async function usedPhotoIds(db: Db, row: Pick<StoryRow, 'bench_test_id' | 'hero_photo_id' | 'body'>): Promise<number[]> {
@@ -31,7 +30,7 @@ export async function syncStoryPhotos(trx: Knex.Transaction, row: StoryRow): Pro
  * Whether anyone may see this photo: it is used by a published story. For the
  * photo routes (issue 5's photoIsPublic in server/services/photos/access.ts).
  */
-export async function photoInPublishedStory(photoId: number, db: Db = useDb()): Promise<boolean> {
+export async function photoInPublishedStory(db: Db, photoId: number): Promise<boolean> {
   const row = await db('story_photos').join('stories', 'stories.id', 'story_photos.story_id')
     .where('story_photos.photo_id', photoId).where('stories.state', 'published').first('stories.id')
   return Boolean(row)

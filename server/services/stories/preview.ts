@@ -4,6 +4,7 @@
 import { createHash, randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
+import type { Db } from '../../utils/db'
 import { PREVIEW_LINK_LIMITS, STORY_PATHS, type CreatePreviewLinkBody, type CreatedPreviewLink, type PreviewLink, type StoryReaderView } from '#shared/types/stories'
 import { previewAllowed } from '#shared/stories/workflow'
 import type { CurrentUser } from '#shared/types/users'
@@ -41,20 +42,18 @@ function toLink(row: PreviewRow): PreviewLink {
   }
 }
 
-function linkQuery() {
-  const db = useDb()
+function linkQuery(db: Db) {
   return db('story_preview_tokens').join('users', 'users.id', 'story_preview_tokens.created_by')
     .select('story_preview_tokens.*', 'users.display_name as creator_name', db.raw('story_preview_tokens.expires_at <= NOW(3) AS expired'))
 }
 
-export async function listPreviewLinks(user: CurrentUser, storyId: number): Promise<PreviewLink[]> {
-  await requireStoryRow(useDb(), user, storyId)
-  const rows = await linkQuery().where('story_preview_tokens.story_id', storyId).orderBy('story_preview_tokens.id', 'desc') as PreviewRow[]
+export async function listPreviewLinks(db: Db, user: CurrentUser, storyId: number): Promise<PreviewLink[]> {
+  await requireStoryRow(db, user, storyId)
+  const rows = await linkQuery(db).where('story_preview_tokens.story_id', storyId).orderBy('story_preview_tokens.id', 'desc') as PreviewRow[]
   return rows.map(toLink)
 }
 
-export async function createPreviewLink(user: CurrentUser, storyId: number, input: z.output<typeof CreatePreviewLinkBody>): Promise<CreatedPreviewLink> {
-  const db = useDb()
+export async function createPreviewLink(db: Db, user: CurrentUser, storyId: number, input: z.output<typeof CreatePreviewLinkBody>): Promise<CreatedPreviewLink> {
   const story = await requireStoryRow(db, user, storyId)
   if (!previewAllowed(story.state)) throw httpError(409, 'This story is published: readers see it on its own page now.')
   const token = randomBytes(32).toString('base64url')
@@ -65,21 +64,19 @@ export async function createPreviewLink(user: CurrentUser, storyId: number, inpu
     created_by: user.id,
     expires_at: db.raw('NOW(3) + INTERVAL ? HOUR', [input.expiresInHours ?? PREVIEW_LINK_LIMITS.defaultHours]),
   })
-  const row = await linkQuery().where('story_preview_tokens.id', id).first() as PreviewRow
+  const row = await linkQuery(db).where('story_preview_tokens.id', id).first() as PreviewRow
   return { link: toLink(row), token, url: `${appConfig().baseUrl}${STORY_PATHS.preview(token)}` }
 }
 
-export async function revokePreviewLink(user: CurrentUser, storyId: number, linkId: number): Promise<PreviewLink> {
-  const db = useDb()
+export async function revokePreviewLink(db: Db, user: CurrentUser, storyId: number, linkId: number): Promise<PreviewLink> {
   await requireStoryRow(db, user, storyId)
   const count = await db('story_preview_tokens').where({ id: linkId, story_id: storyId }).update({ revoked_at: db.raw('COALESCE(revoked_at, NOW(3))') })
   if (!count) notFound('No such preview link on this story.')
-  return toLink(await linkQuery().where('story_preview_tokens.id', linkId).first() as PreviewRow)
+  return toLink(await linkQuery(db).where('story_preview_tokens.id', linkId).first() as PreviewRow)
 }
 
 /** The story behind a token: 404 when unknown, 410 when revoked, run out or published. */
-export async function storyForPreviewToken(token: string): Promise<StoryRow> {
-  const db = useDb()
+export async function storyForPreviewToken(db: Db, token: string): Promise<StoryRow> {
   const link = await db('story_preview_tokens').where('token_hash', hashToken(token))
     .first('id', 'story_id', 'revoked_at', db.raw('expires_at <= NOW(3) AS expired'))
   if (!link) notFound('This preview link does not exist.')
@@ -93,17 +90,17 @@ export async function storyForPreviewToken(token: string): Promise<StoryRow> {
 }
 
 /** The page a preview shows; its photos are served through the token too (they are not public yet). */
-export async function previewView(token: string): Promise<StoryReaderView> {
-  const story = await storyForPreviewToken(token)
-  return storyReaderView(useDb(), story, { preview: true, photoUrl: (photoId, width) => `/api/preview/${token}/photos/${photoId}/${width}` })
+export async function previewView(db: Db, token: string): Promise<StoryReaderView> {
+  const story = await storyForPreviewToken(db, token)
+  return storyReaderView(db, story, { preview: true, photoUrl: (photoId, width) => `/api/preview/${token}/photos/${photoId}/${width}` })
 }
 
 /** A photo of the previewed story, only when the story uses it. */
-export async function previewPhoto(token: string, photoId: number): Promise<PhotoRecord> {
-  const story = await storyForPreviewToken(token)
-  const used = await usedPhotoIds(useDb(), story)
+export async function previewPhoto(db: Db, token: string, photoId: number): Promise<PhotoRecord> {
+  const story = await storyForPreviewToken(db, token)
+  const used = await usedPhotoIds(db, story)
   if (!used.includes(photoId)) notFound('No such photo in this story.')
-  return (await useDb()<PhotoRecord>('photos').where({ id: photoId }).first())!
+  return (await db<PhotoRecord>('photos').where({ id: photoId }).first())!
 }
 
 /** The token from the route; anything that cannot be one is simply not found. */

@@ -2,6 +2,7 @@
 // restore, and one coalescing revision per autosave run. State revisions are kept
 // for ever; of the rest the newest STORY_LIMITS.keptRevisions.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import {
   STORY_LIMITS,
   type RevisionComparison, type RevisionKind, type StoryContent, type StoryRevision, type StoryRevisionSummary,
@@ -61,7 +62,7 @@ function toSummary(row: RevisionRow): StoryRevisionSummary {
 
 const toRevision = (row: RevisionRow): StoryRevision => ({ ...toSummary(row), content: parseContent(row.content) })
 
-function revisionQuery(db: Knex | Knex.Transaction, storyId: number) {
+function revisionQuery(db: Db, storyId: number) {
   return db('story_revisions').leftJoin('users', 'users.id', 'story_revisions.author_id')
     .where('story_revisions.story_id', storyId)
     .select('story_revisions.*', 'users.display_name as author_name')
@@ -91,27 +92,24 @@ async function pruneRevisions(trx: Knex.Transaction, storyId: number): Promise<v
   await trx('story_revisions').where('story_id', storyId).whereNot('kind', 'state').where('id', '<', oldestKept.id).delete()
 }
 
-export async function listRevisions(user: CurrentUser, storyId: number): Promise<StoryRevisionSummary[]> {
-  const db = useDb()
+export async function listRevisions(db: Db, user: CurrentUser, storyId: number): Promise<StoryRevisionSummary[]> {
   await requireStoryRow(db, user, storyId)
   const rows = await revisionQuery(db, storyId).orderBy('story_revisions.id', 'desc') as RevisionRow[]
   return rows.map(toSummary)
 }
 
-async function findRevision(db: Knex | Knex.Transaction, storyId: number, revisionId: number): Promise<StoryRevision> {
+async function findRevision(db: Db, storyId: number, revisionId: number): Promise<StoryRevision> {
   const row = await revisionQuery(db, storyId).where('story_revisions.id', revisionId).first() as RevisionRow | undefined
   if (!row) notFound('No such revision of this story.')
   return toRevision(row)
 }
 
-export async function getRevision(user: CurrentUser, storyId: number, revisionId: number): Promise<StoryRevision> {
-  const db = useDb()
+export async function getRevision(db: Db, user: CurrentUser, storyId: number, revisionId: number): Promise<StoryRevision> {
   await requireStoryRow(db, user, storyId)
   return findRevision(db, storyId, revisionId)
 }
 
-export async function compareRevisions(user: CurrentUser, storyId: number, fromId: number, toId: number): Promise<RevisionComparison> {
-  const db = useDb()
+export async function compareRevisions(db: Db, user: CurrentUser, storyId: number, fromId: number, toId: number): Promise<RevisionComparison> {
   await requireStoryRow(db, user, storyId)
   const [from, to] = await Promise.all([findRevision(db, storyId, fromId), findRevision(db, storyId, toId)])
   const changedFields = CONTENT_FIELDS.filter(f => JSON.stringify(from.content[f]) !== JSON.stringify(to.content[f]))
@@ -123,8 +121,7 @@ export async function compareRevisions(user: CurrentUser, storyId: number, fromI
  * revision); the state stays. A hero photo deleted since, or bylines who can no
  * longer be bylines, are left as they are now rather than refusing the restore.
  */
-export async function restoreRevision(user: CurrentUser, storyId: number, revisionId: number, version: number) {
-  const db = useDb()
+export async function restoreRevision(db: Db, user: CurrentUser, storyId: number, revisionId: number, version: number) {
   const story = await requireStoryRow(db, user, storyId)
   const revision = await findRevision(db, storyId, revisionId)
   const c = revision.content
@@ -134,7 +131,7 @@ export async function restoreRevision(user: CurrentUser, storyId: number, revisi
     : []
   const bylineIds = c.bylineIds.filter(id => validBylines.includes(id))
   const keepsMe = user.role !== 'writer' || bylineIds.includes(user.id)
-  return saveStoryContent(user, storyId, {
+  return saveStoryContent(db, user, storyId, {
     version,
     headline: c.headline,
     deck: c.deck,

@@ -2,6 +2,7 @@
 // transaction: the row (UPDATE ... WHERE version = ?), bylines, tags, the photos it
 // uses and its revision, or nothing at all.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { CreateStoryInput, RevisionKind, Story, UpdateStoryInput } from '#shared/types/stories'
 import { rolesAtLeast } from '#shared/accounts/roles'
 import { mayEditContent } from '#shared/stories/workflow'
@@ -15,20 +16,20 @@ import { slugify } from '../workspace/bench-test-core'
 const BYLINE_ROLES = rolesAtLeast('writer')
 
 /** Bylines are active writers, editors or admins; a writer may not take themselves off. */
-async function checkBylines(db: Knex | Knex.Transaction, user: CurrentUser, ids: number[]): Promise<void> {
+async function checkBylines(db: Db, user: CurrentUser, ids: number[]): Promise<void> {
   const rows = await db('users').whereIn('id', ids).where('disabled', false).whereIn('role', BYLINE_ROLES).pluck('id') as number[]
   const missingIds = ids.filter(id => !rows.includes(id))
   if (missingIds.length) invalidField('bylineIds', `User ${missingIds.join(', ')} cannot be a byline (bylines are active writers, editors or admins).`)
   if (user.role === 'writer' && !ids.includes(user.id)) invalidField('bylineIds', 'Keep yourself among the bylines; otherwise the story leaves your desk.')
 }
 
-async function checkHeroPhoto(db: Knex | Knex.Transaction, benchTestId: number, photoId: number | null | undefined): Promise<void> {
+async function checkHeroPhoto(db: Db, benchTestId: number, photoId: number | null | undefined): Promise<void> {
   if (photoId === null || photoId === undefined) return
   const found = await db('photos').where({ id: photoId, bench_test_id: benchTestId }).first('id')
   if (!found) invalidField('heroPhotoId', `Photo ${photoId} is not a photo of this story's bench test.`)
 }
 
-async function freeSlug(db: Knex | Knex.Transaction, headline: string): Promise<string> {
+async function freeSlug(db: Db, headline: string): Promise<string> {
   const base = slugify(headline).slice(0, 110).replace(/-+$/, '') || 'story'
   const taken = new Set(await db('stories').where('slug', base).orWhere('slug', 'like', `${base}-%`).pluck('slug') as string[])
   if (!taken.has(base)) return base
@@ -55,14 +56,13 @@ async function replaceList(trx: Knex.Transaction, table: 'story_bylines' | 'stor
   }
 }
 
-export async function createStoryDraft(user: CurrentUser, input: CreateStoryInput): Promise<Story> {
-  const db = useDb()
-  const benchTest = await requireBenchTest(user, input.benchTestId)
+export async function createStoryDraft(db: Db, user: CurrentUser, input: CreateStoryInput): Promise<Story> {
+  const benchTest = await requireBenchTest(db, user, input.benchTestId)
   const bylineIds = input.bylineIds ?? [user.id]
   await checkBylines(db, user, bylineIds)
   const id = await withFreeSlug(async () => {
     try {
-      return await storyTransaction(async (trx) => {
+      return await storyTransaction(db, async (trx) => {
         const slug = input.slug ?? await freeSlug(trx, input.headline)
         const [storyId] = await trx('stories').insert({
           bench_test_id: benchTest.id,
@@ -89,7 +89,7 @@ export async function createStoryDraft(user: CurrentUser, input: CreateStoryInpu
       throw error
     }
   })
-  return getStory(user, id)
+  return getStory(db, user, id)
 }
 
 const FIELD_COLUMNS = {
@@ -108,10 +108,10 @@ const FIELD_COLUMNS = {
  * A save (PATCH), an autosave or a restore: 409 with the current story when the
  * version is stale, 409 when this user may not edit the story in its state.
  */
-export async function saveStoryContent(user: CurrentUser, id: number, input: UpdateStoryInput, opts: { kind?: RevisionKind, note?: string } = {}): Promise<Story> {
+export async function saveStoryContent(db: Db, user: CurrentUser, id: number, input: UpdateStoryInput, opts: { kind?: RevisionKind, note?: string } = {}): Promise<Story> {
   const kind: RevisionKind = opts.kind ?? (input.autosave ? 'autosave' : 'save')
   try {
-    await storyTransaction(async (trx) => {
+    await storyTransaction(db, async (trx) => {
       const row = await requireStoryRow(trx, user, id, { lock: true })
       if (row.version !== input.version) staleVersion(await storyDto(trx, row, user), 'story')
       const own = await trx('story_bylines').where({ story_id: id, user_id: user.id }).first('user_id')
@@ -140,5 +140,5 @@ export async function saveStoryContent(user: CurrentUser, id: number, input: Upd
     if (isDuplicateEntry(error) && input.slug) slugTaken(input.slug)
     throw error
   }
-  return getStory(user, id)
+  return getStory(db, user, id)
 }

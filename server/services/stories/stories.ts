@@ -2,6 +2,7 @@
 // a story only through a byline row of their own (404 otherwise); editors and
 // admins reach every story.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { EngineFamily, PartType } from '#shared/types/catalog'
 import type { Story, StoryByline, StoryContent, StoryLock, StorySummary } from '#shared/types/stories'
 import type { StoryState } from '#shared/types/story-workflow'
@@ -137,8 +138,7 @@ export async function storyDto(db: Db, row: StoryRow, user: CurrentUser): Promis
   }
 }
 
-export async function getStory(user: CurrentUser, id: number): Promise<Story> {
-  const db = useDb()
+export async function getStory(db: Db, user: CurrentUser, id: number): Promise<Story> {
   return storyDto(db, await requireStoryRow(db, user, id), user)
 }
 
@@ -172,9 +172,9 @@ export async function storyById(db: Db, id: number): Promise<StoryRow> {
 const isDeadlock = (error: unknown) => (error as { code?: string }).code === 'ER_LOCK_DEADLOCK' || (error as { errno?: number }).errno === 1213
 
 /** A transaction retried when MariaDB picks it as a deadlock victim (it was rolled back whole). */
-export async function storyTransaction<T>(work: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+export async function storyTransaction<T>(db: Db, work: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
   for (let attempt = 1; ; attempt++) {
-    try { return await useDb().transaction(work) }
+    try { return await db.transaction(work) }
     catch (error) {
       if (!isDeadlock(error) || attempt >= 3) throw error
     }
@@ -182,7 +182,7 @@ export async function storyTransaction<T>(work: (trx: Knex.Transaction) => Promi
 }
 
 /** 409 with the story as it is now: the version the caller read is stale. */
-export async function staleStory(user: CurrentUser, id: number): Promise<never> {
-  const current = await getStory(user, id)
+export async function staleStory(db: Db, user: CurrentUser, id: number): Promise<never> {
+  const current = await getStory(db, user, id)
   staleVersion(current, 'story')
 }

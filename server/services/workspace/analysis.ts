@@ -1,7 +1,7 @@
 // The live data of a bench test's setups, loaded for shared/dyno's one analysis
 // pipeline (analyse.ts): setups as they are now, included pulls with their points on
 // the analysis grid. Answers are kept per process, keyed by every version they hang on.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import {
   AnalysisInputError, analyseBench, resample,
   type AnalyseOptions, type AtRpm, type BenchAnalysis, type BenchData, type PullPoint, type Weather,
@@ -12,8 +12,6 @@ import { LruCache } from '#shared/utils/lru-cache'
 import { decodePoints } from './pull-points'
 import { httpError, invalidField } from '../../utils/http-errors'
 import { asBool } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 
 export interface PullMeta {
   id: number

@@ -1,4 +1,4 @@
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { CurrentUser } from '#shared/types/users'
 import type { BenchTestRecord } from './bench-test-core'
 
@@ -11,7 +11,7 @@ export function seesAllBenchTests(user: CurrentUser): boolean {
  * The bench tests this user may reach, as a query: ownership lives in the SQL
  * WHERE, so a writer asking for another writer's id finds nothing (404).
  */
-export function visibleBenchTests(db: Knex | Knex.Transaction, user: CurrentUser, opts: { includeDeleted?: boolean } = {}) {
+export function visibleBenchTests(db: Db, user: CurrentUser, opts: { includeDeleted?: boolean } = {}) {
   const query = db<BenchTestRecord>('bench_tests')
   if (!opts.includeDeleted) query.whereNull('bench_tests.deleted_at')
   if (!seesAllBenchTests(user)) query.where('bench_tests.owner_id', user.id)
@@ -19,7 +19,7 @@ export function visibleBenchTests(db: Knex | Knex.Transaction, user: CurrentUser
 }
 
 /** The bench test, or 404 when it does not exist or is not this user's to reach. */
-export async function requireBenchTest(user: CurrentUser, id: number, db: Knex | Knex.Transaction = useDb()): Promise<BenchTestRecord> {
+export async function requireBenchTest(db: Db, user: CurrentUser, id: number): Promise<BenchTestRecord> {
   const row = await visibleBenchTests(db, user).where('bench_tests.id', id).first()
   if (!row) notFound('No such bench test.')
   return row

@@ -2,14 +2,13 @@
 // from the user-scoped reads (bench-tests.ts) so the demo seed, the benchmark and unit
 // tests can use it outside Nitro.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { BenchTest, CreateBenchTestInput } from '../../../shared/types/workspace'
 import type { CorrectionStandard } from '../../../shared/dyno/index'
 import type { EngineFamily, PartType } from '../../../shared/types/catalog'
 import { withFreeSlug } from '../../utils/slug-retry'
 import { missing } from '../../utils/http-errors'
 import { isoDay, isoTime, isoTimeRequired } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 /** A bench_tests row as stored. */
 export interface BenchTestRecord {
   id: number
@@ -82,7 +81,7 @@ async function uniqueSlug(db: Db, title: string): Promise<string> {
   for (let n = 2; ; n++) if (!taken.has(`${base}-${n}`)) return `${base}-${n}`
 }
 
-export async function createBenchTest(db: Knex, ownerId: number, input: CreateBenchTestInput): Promise<BenchTest> {
+export async function createBenchTest(db: Db, ownerId: number, input: CreateBenchTestInput): Promise<BenchTest> {
   // Two writers choosing the same title at once: the later one takes the next free slug.
   const id = await withFreeSlug(async () => {
     const [inserted] = await db('bench_tests').insert({

@@ -1,6 +1,6 @@
 // Bench tests as a user reaches them: only through visibleBenchTests (ownership in the
 // WHERE). Creation and the DTO live in bench-test-core.ts.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { CurrentUser } from '../../../shared/types/users'
 import type { BenchTest, BenchTestDetail, BenchTestSummary, UpdateBenchTestInput } from '../../../shared/types/workspace'
 import { visibleBenchTests } from './bench-test-access'
@@ -8,8 +8,6 @@ import { benchTestById, toBenchTest, withOwner, type BenchTestRow } from './benc
 import { confirmDeletion, invalidField, missing, staleVersion } from '../../utils/http-errors'
 import { getBuildSheet } from './build-sheets'
 import { listSetups } from './setups'
-
-type Db = Knex | Knex.Transaction
 
 /** One bench test as its owner (or an editor) sees it; 404 otherwise. */
 export async function findBenchTest(db: Db, user: CurrentUser, id: number, opts: { deleted?: boolean } = {}): Promise<BenchTest> {
@@ -39,13 +37,13 @@ export async function listBenchTests(db: Db, user: CurrentUser, query: { deleted
   })
 }
 
-export async function getBenchTestDetail(db: Knex, user: CurrentUser, id: number): Promise<BenchTestDetail> {
+export async function getBenchTestDetail(db: Db, user: CurrentUser, id: number): Promise<BenchTestDetail> {
   const benchTest = await findBenchTest(db, user, id)
   const [buildSheet, setups] = await Promise.all([getBuildSheet(db, id), listSetups(db, id)])
   return { benchTest, buildSheet, setups }
 }
 
-export async function updateBenchTest(db: Knex, user: CurrentUser, id: number, input: UpdateBenchTestInput): Promise<BenchTest> {
+export async function updateBenchTest(db: Db, user: CurrentUser, id: number, input: UpdateBenchTestInput): Promise<BenchTest> {
   const current = await findBenchTest(db, user, id)
   const patch: Record<string, unknown> = {}
   if (input.title !== undefined) patch.title = input.title
@@ -76,7 +74,7 @@ async function pullCounts(db: Db, benchTestId: number): Promise<{ setups: number
 }
 
 /** Soft delete; with pulls it needs confirm (409 with what would go otherwise). */
-export async function deleteBenchTest(db: Knex, user: CurrentUser, id: number, confirm: boolean): Promise<BenchTest> {
+export async function deleteBenchTest(db: Db, user: CurrentUser, id: number, confirm: boolean): Promise<BenchTest> {
   await findBenchTest(db, user, id)
   const counts = await pullCounts(db, id)
   if (counts.pulls > 0 && !confirm) confirmDeletion('bench test', counts.setups, counts.pulls)
@@ -84,7 +82,7 @@ export async function deleteBenchTest(db: Knex, user: CurrentUser, id: number, c
   return benchTestById(db, id)
 }
 
-export async function restoreBenchTest(db: Knex, user: CurrentUser, id: number): Promise<BenchTest> {
+export async function restoreBenchTest(db: Db, user: CurrentUser, id: number): Promise<BenchTest> {
   await findBenchTest(db, user, id, { deleted: true })
   await db('bench_tests').where({ id }).update({ deleted_at: null, version: db.raw('version + 1') })
   return benchTestById(db, id)

@@ -1,11 +1,9 @@
 // The build sheet: one per bench test, written whole (PUT) with the version read.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { ciToLiters, displacementCi } from '../../../shared/dyno/index'
 import type { BuildSheet, BuildSheetInput } from '../../../shared/types/workspace'
 import { httpError, staleVersion } from '../../utils/http-errors'
 import { asNumberOrNull, isoTimeRequired } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 
 interface BuildSheetRow {
   bench_test_id: number
@@ -53,7 +51,7 @@ export async function getBuildSheet(db: Db, benchTestId: number): Promise<BuildS
 }
 
 /** Creates the sheet (version 0: "there was none when I read") or replaces it (the version read). */
-export async function putBuildSheet(db: Knex, benchTestId: number, input: BuildSheetInput): Promise<BuildSheet> {
+export async function putBuildSheet(db: Db, benchTestId: number, input: BuildSheetInput): Promise<BuildSheet> {
   const { version, boreIn, strokeIn, compressionRatio, ...texts } = input
   const values = { bore_in: boreIn, stroke_in: strokeIn, cylinders: input.cylinders, compression_ratio: compressionRatio, heads: texts.heads, induction: texts.induction, fuel: texts.fuel, ignition: texts.ignition, exhaust: texts.exhaust, notes: texts.notes }
   const stale = async (): Promise<never> => {

@@ -2,14 +2,13 @@
 // step. Kept apart from dyno-day.ts because the upload path (and the demo seed, under
 // plain tsx) imports it: only the import core, the check pool and the live counter come along.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { CorrectionStandard, Weather } from '../../../shared/dyno/index'
 import { insertCheckedPulls, type CheckedPull } from './pull-import'
 import { checkStoredPullBatch } from './pull-pool'
 
 /** Files from the operator link go straight to the current step only this long after the day was started. */
 export const DAY_FILING_HOURS = 24
-
-type Db = Knex | Knex.Transaction
 
 interface DayTarget { setupId: number, label: string, standard: CorrectionStandard }
 

@@ -2,7 +2,7 @@
 // window, the repeat verdicts and the plan against what happened, and what the
 // operator's link shows of the plan. The plan itself is test-plans.ts; files are filed
 // into the current step by dyno-day-filing.ts.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { CorrectionStandard } from '../../../shared/dyno/index'
 import type { DayStep, DayView, OperatorPlanView, PlanStep, StepStatus, TestPlan } from '../../../shared/types/dyno-day'
 import { acceptanceFlags, dayReport, minutesBetween, pullTemperatures, repeatVerdict } from '../../../shared/utils/dyno-day'
@@ -10,8 +10,6 @@ import { liveMark } from './live-marks'
 import { decodePoints } from './pull-points'
 import { pullSummaries, repeatabilityBySetup } from './pulls'
 import { getTestPlan } from './test-plans'
-
-type Db = Knex | Knex.Transaction
 
 function statusOf(plan: TestPlan, step: PlanStep, pullCount: number): StepStatus {
   if (step.skippedAt) return 'skipped'

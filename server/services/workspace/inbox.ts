@@ -1,14 +1,12 @@
 // The bench test's inbox: files the operator dropped through a link. Assigning a file
 // to a setup runs the same check and insert as the writer's own import.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { ColumnRole, CorrectionStandard } from '../../../shared/dyno/index'
 import type { AssignInboxInput, InboxFile, InboxState, PullFilePreview } from '../../../shared/types/workspace'
 import { insertCheckedPulls } from './pull-import'
 import { checkStoredPullBatch, checkUploadedFiles } from './pull-pool'
 import { httpError, missing } from '../../utils/http-errors'
 import { isoTimeRequired, parseJsonColumn } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 
 interface InboxRow {
   id: number
@@ -69,7 +67,7 @@ export async function previewInboxFile(db: Db, benchTestId: number, fileId: numb
 }
 
 /** Every item becomes a pull, in one transaction, or none does. Returns the pull ids in order. */
-export async function assignInboxFiles(db: Knex, userId: number, benchTestId: number, standard: CorrectionStandard, input: AssignInboxInput): Promise<number[]> {
+export async function assignInboxFiles(db: Db, userId: number, benchTestId: number, standard: CorrectionStandard, input: AssignInboxInput): Promise<number[]> {
   const files = await Promise.all(input.items.map(item => inboxFile(db, benchTestId, item.fileId)))
   if (new Set(input.items.map(i => i.fileId)).size !== input.items.length) throw httpError(400, 'A file is listed twice.')
   const notWaiting = files.find(f => f.state !== 'waiting')
@@ -92,7 +90,7 @@ export async function assignInboxFiles(db: Knex, userId: number, benchTestId: nu
   })
 }
 
-export async function dismissInboxFile(db: Knex, userId: number, benchTestId: number, fileId: number): Promise<InboxFile> {
+export async function dismissInboxFile(db: Db, userId: number, benchTestId: number, fileId: number): Promise<InboxFile> {
   const file = await inboxFile(db, benchTestId, fileId)
   if (file.state !== 'waiting') throw httpError(409, `${file.fileName} was already ${file.state}.`)
   await db('inbox_files').where({ id: fileId, state: 'waiting' }).update({ state: 'dismissed', handled_by: userId, handled_at: db.raw('NOW(3)') })
@@ -100,10 +98,10 @@ export async function dismissInboxFile(db: Knex, userId: number, benchTestId: nu
 }
 
 /** File names of some inbox files of this bench test, in the order asked (for messages); unknown ids give undefined. */
-export async function inboxFileNames(benchTestId: number, ids: readonly unknown[]): Promise<(string | undefined)[]> {
+export async function inboxFileNames(db: Db, benchTestId: number, ids: readonly unknown[]): Promise<(string | undefined)[]> {
   const wanted = ids.filter((id): id is number => Number.isInteger(id) && (id as number) > 0)
   if (!wanted.length) return ids.map(() => undefined)
-  const rows = await useDb()('inbox_files').where('bench_test_id', benchTestId).whereIn('id', wanted).select('id', 'file_name') as { id: number, file_name: string }[]
+  const rows = await db('inbox_files').where('bench_test_id', benchTestId).whereIn('id', wanted).select('id', 'file_name') as { id: number, file_name: string }[]
   const byId = new Map(rows.map(r => [r.id, r.file_name]))
   return ids.map(id => (typeof id === 'number' ? byId.get(id) : undefined))
 }

@@ -2,9 +2,7 @@
 // transaction of the change; every app server polls the counters of the bench tests its
 // own watchers follow, once a second, and tells those watchers. Nothing travels between
 // servers but through MariaDB, so any number of servers can serve watchers.
-import type { Knex } from 'knex'
-
-type Db = Knex | Knex.Transaction
+import type { Db } from '../../utils/db'
 
 /** Call last in the change's transaction: the counter row stays locked until commit. */
 export async function bumpLiveMark(db: Db, benchTestId: number): Promise<void> {

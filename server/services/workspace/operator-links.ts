@@ -3,14 +3,13 @@
 // bytes shown once; the database keeps its SHA-256.
 import { createHash, randomBytes } from 'node:crypto'
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { OPERATOR_LINK_LIMITS, PULL_LIMITS, type CreatedOperatorLink, type CreateOperatorLinkInput, type OperatorLink, type OperatorLinkState, type UploadLinkInfo, type UploadReceipt } from '../../../shared/types/workspace'
 import { fileArrivalIntoPlan, planArrivals } from './dyno-day-filing'
 import { bumpLiveMark } from './live-marks'
 import { checkIncomingFiles, type IncomingFile } from './pull-pool'
 import { httpError, missing } from '../../utils/http-errors'
 import { asBool, isoTime, isoTimeRequired } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 
 interface LinkRow {
   id: number

@@ -2,6 +2,7 @@
 // demo seed all come through here. The core takes a Knex instance and imports what it
 // uses explicitly, because the seed runs under plain tsx, outside Nitro.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { ColumnRole, CorrectionStandard, Problem, Weather } from '../../../shared/dyno/index'
 import type { CheckedPullFile } from './pull-check'
 import { checkPullBatchFiles } from './pull-batch-check'
@@ -90,7 +91,7 @@ export async function insertCheckedPulls(trx: Knex.Transaction, benchTestId: num
   return ids
 }
 
-async function standardOf(db: Knex | Knex.Transaction, benchTestId: number): Promise<CorrectionStandard> {
+async function standardOf(db: Db, benchTestId: number): Promise<CorrectionStandard> {
   const row = await db('bench_tests').where({ id: benchTestId }).first('default_standard')
   return (row?.default_standard ?? 'sae-j1349-1990') as CorrectionStandard
 }

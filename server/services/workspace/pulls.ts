@@ -1,7 +1,7 @@
 // Pulls of a bench test: listing with repeatability per setup, one pull with its
 // points or its original file, and the writer's changes (exclude with a reason,
 // weather, move to another setup), each with the version read.
-import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { REPEATABILITY_PCT, assertWeather, pullFactor, scalePoints, setupCurve, type CorrectionStandard, type PowerUnit, type Problem, type TorqueUnit, type VacuumUnit } from '../../../shared/dyno/index'
 import type { PullDetail, PullList, PullSummary, SetupRepeatability, UpdatePullInput } from '../../../shared/types/workspace'
 import { loadGridPoints, weatherOf, loadPullMeta } from './analysis'
@@ -9,8 +9,6 @@ import { decodePoints } from './pull-points'
 import { bumpLiveMark } from './live-marks'
 import { httpError, invalidField, missing, staleVersion } from '../../utils/http-errors'
 import { asBool, isoTimeRequired, parseJsonColumn } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 
 interface PullRow {
   id: number
@@ -152,7 +150,7 @@ export async function listPulls(db: Db, benchTestId: number, standard: Correctio
   return { pulls, repeatability: await repeatabilityBySetup(db, setupIds, standard), standard }
 }
 
-export async function updatePull(db: Knex, benchTestId: number, pullId: number, input: UpdatePullInput): Promise<PullSummary> {
+export async function updatePull(db: Db, benchTestId: number, pullId: number, input: UpdatePullInput): Promise<PullSummary> {
   const current = await getPullSummary(db, benchTestId, pullId)
   const patch: Record<string, unknown> = {}
   if (input.included !== undefined) {

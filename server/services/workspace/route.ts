@@ -17,7 +17,7 @@ export const PullParams = z.object({ id: IdSchema, pullId: IdSchema })
 export async function requireWorkspace<T extends { id: number }>(event: H3Event, params: ZodType<T>): Promise<{ user: CurrentUser, params: T, benchTest: BenchTestRecord }> {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const parsed = await getValidatedRouterParams(event, zodParser(params))
-  const benchTest = await requireBenchTest(user, parsed.id)
+  const benchTest = await requireBenchTest(useDb(), user, parsed.id)
   return { user, params: parsed, benchTest }
 }
 

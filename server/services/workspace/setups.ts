@@ -2,11 +2,10 @@
 // index, see the setups migration), soft-deleted. Changes to order and baseline lock
 // the bench test row so two requests cannot interleave them.
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import type { CreateSetupInput, IdleCheck, IdleCheckInput, PartSpec, Setup, UpdateSetupInput } from '../../../shared/types/workspace'
 import { confirmDeletion, invalidField, missing, staleVersion } from '../../utils/http-errors'
 import { isoTime, isoTimeRequired, parseJsonColumn, asBool } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 
 interface SetupRow {
   id: number
@@ -91,7 +90,7 @@ async function hasLiveBaseline(trx: Knex.Transaction, benchTestId: number): Prom
   return Boolean(await trx('setups').where({ bench_test_id: benchTestId, is_baseline: true }).whereNull('deleted_at').first('id'))
 }
 
-export async function createSetup(db: Knex, benchTestId: number, input: CreateSetupInput): Promise<Setup> {
+export async function createSetup(db: Db, benchTestId: number, input: CreateSetupInput): Promise<Setup> {
   const id = await db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
     const baseline = input.baseline === true || !(await hasLiveBaseline(trx, benchTestId))
@@ -109,7 +108,7 @@ export async function createSetup(db: Knex, benchTestId: number, input: CreateSe
   return getSetup(db, benchTestId, id)
 }
 
-export async function updateSetup(db: Knex, benchTestId: number, setupId: number, input: UpdateSetupInput): Promise<Setup> {
+export async function updateSetup(db: Db, benchTestId: number, setupId: number, input: UpdateSetupInput): Promise<Setup> {
   await getSetup(db, benchTestId, setupId)
   const patch: Record<string, unknown> = {}
   if (input.label !== undefined) patch.label = input.label
@@ -122,7 +121,7 @@ export async function updateSetup(db: Knex, benchTestId: number, setupId: number
 }
 
 /** Soft delete; a deleted baseline hands the role to the first setup left. */
-export async function deleteSetup(db: Knex, benchTestId: number, setupId: number, confirm: boolean): Promise<Setup> {
+export async function deleteSetup(db: Db, benchTestId: number, setupId: number, confirm: boolean): Promise<Setup> {
   const setup = await getSetup(db, benchTestId, setupId)
   if (setup.pullCount > 0 && !confirm) confirmDeletion('setup', 0, setup.pullCount)
   await db.transaction(async (trx) => {
@@ -137,7 +136,7 @@ export async function deleteSetup(db: Knex, benchTestId: number, setupId: number
 }
 
 /** Back at the end of the order; the baseline again only when there is none. */
-export async function restoreSetup(db: Knex, benchTestId: number, setupId: number): Promise<Setup> {
+export async function restoreSetup(db: Db, benchTestId: number, setupId: number): Promise<Setup> {
   await getSetup(db, benchTestId, setupId, { deleted: true })
   await db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
@@ -147,7 +146,7 @@ export async function restoreSetup(db: Knex, benchTestId: number, setupId: numbe
   return getSetup(db, benchTestId, setupId)
 }
 
-export async function makeBaseline(db: Knex, benchTestId: number, setupId: number): Promise<Setup[]> {
+export async function makeBaseline(db: Db, benchTestId: number, setupId: number): Promise<Setup[]> {
   await getSetup(db, benchTestId, setupId)
   await db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
@@ -158,7 +157,7 @@ export async function makeBaseline(db: Knex, benchTestId: number, setupId: numbe
   return listSetups(db, benchTestId)
 }
 
-export async function reorderSetups(db: Knex, benchTestId: number, setupIds: number[]): Promise<Setup[]> {
+export async function reorderSetups(db: Db, benchTestId: number, setupIds: number[]): Promise<Setup[]> {
   await db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
     const live = (await trx('setups').where({ bench_test_id: benchTestId }).whereNull('deleted_at').pluck('id') as number[]).map(Number)
@@ -169,13 +168,13 @@ export async function reorderSetups(db: Knex, benchTestId: number, setupIds: num
   return listSetups(db, benchTestId)
 }
 
-export async function addIdleCheck(db: Knex, benchTestId: number, setupId: number, input: IdleCheckInput, userId: number | null): Promise<IdleCheck> {
+export async function addIdleCheck(db: Db, benchTestId: number, setupId: number, input: IdleCheckInput, userId: number | null): Promise<IdleCheck> {
   await getSetup(db, benchTestId, setupId)
   const [id] = await db('idle_checks').insert({ setup_id: setupId, idle_rpm: input.idleRpm, vacuum_inhg: input.vacuumInHg, note: input.note ?? '', created_by: userId })
   return toIdleCheck((await db<IdleRow>('idle_checks').where({ id }).first())!)
 }
 
-export async function deleteIdleCheck(db: Knex, benchTestId: number, setupId: number, checkId: number): Promise<void> {
+export async function deleteIdleCheck(db: Db, benchTestId: number, setupId: number, checkId: number): Promise<void> {
   await getSetup(db, benchTestId, setupId)
   const count = await db('idle_checks').where({ id: checkId, setup_id: setupId }).delete()
   if (!count) missing('No such idle check on this setup.')

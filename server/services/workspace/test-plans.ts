@@ -4,14 +4,13 @@
 // the database seed can write a plan through the same code under plain tsx.
 import { randomBytes } from 'node:crypto'
 import type { Knex } from 'knex'
+import type { Db } from '../../utils/db'
 import { DEFAULT_ACCEPTANCE, type Acceptance, type ChecklistItem, type DayAction, type PlanStep, type PlanStepInput, type SavePlanInput, type TestPlan } from '../../../shared/types/dyno-day'
 import type { PartSpec } from '../../../shared/types/workspace'
 import { bumpLiveMark } from './live-marks'
 import { createSetup } from './setups'
 import { invalidField, missing, staleVersion } from '../../utils/http-errors'
 import { isoTime, parseJsonColumn } from '../../utils/rows'
-
-type Db = Knex | Knex.Transaction
 
 interface PlanRow {
   bench_test_id: number
@@ -85,7 +84,7 @@ export async function getTestPlan(db: Db, benchTestId: number): Promise<TestPlan
 type StepToSave = PlanStepInput & { newSetupParts?: PartSpec[] }
 
 /** The whole plan replaces the stored one when `version` is the one stored; steps kept by id keep their day state and ticks. */
-export async function saveTestPlan(db: Knex, userId: number, benchTestId: number, input: Omit<SavePlanInput, 'steps'> & { steps: StepToSave[] }): Promise<TestPlan> {
+export async function saveTestPlan(db: Db, userId: number, benchTestId: number, input: Omit<SavePlanInput, 'steps'> & { steps: StepToSave[] }): Promise<TestPlan> {
   await db.transaction(async (trx) => {
     await trx('bench_tests').where({ id: benchTestId }).forUpdate().first('id')
     const row = await trx('test_plans').where({ bench_test_id: benchTestId }).forUpdate().first('version', 'current_step_id') as { version: number, current_step_id: number | null } | undefined
@@ -133,7 +132,7 @@ export async function saveTestPlan(db: Knex, userId: number, benchTestId: number
  * Another bench test's plan replaces this one's; its setups come over as planned setups
  * with their parts. The caller has checked that this user may read the other bench test.
  */
-export async function copyTestPlan(db: Knex, userId: number, benchTestId: number, fromBenchTestId: number, version: number): Promise<TestPlan> {
+export async function copyTestPlan(db: Db, userId: number, benchTestId: number, fromBenchTestId: number, version: number): Promise<TestPlan> {
   if (fromBenchTestId === benchTestId) invalidField('fromBenchTestId', 'Pick another bench test to copy its plan from.')
   const plan = await getTestPlan(db, fromBenchTestId)
   if (plan.version === 0 || plan.steps.length === 0) invalidField('fromBenchTestId', 'That bench test has no plan to copy.')
@@ -156,7 +155,7 @@ export async function copyTestPlan(db: Knex, userId: number, benchTestId: number
 }
 
 /** One move of the day; each changes one row, so two people working the day do not need versions. */
-export async function applyDayAction(db: Knex, benchTestId: number, action: DayAction): Promise<TestPlan> {
+export async function applyDayAction(db: Db, benchTestId: number, action: DayAction): Promise<TestPlan> {
   await db.transaction(async (trx) => {
     const step = await trx('test_plan_steps').where({ id: action.stepId, bench_test_id: benchTestId }).forUpdate().first('id', 'position', 'checklist', 'started_at') as { id: number, position: number, checklist: string, started_at: Date | null } | undefined
     if (!step) missing('No such step in this bench test\'s plan.')

@@ -7,5 +7,5 @@ const Body = z.object({ graceSeconds: z.number().int().min(0).max(30 * 86400).de
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')
   const { graceSeconds } = await readValidatedBody(event, zodParser(Body))
-  return sweepPhotoStorage(graceSeconds)
+  return sweepPhotoStorage(useDb(), graceSeconds)
 })

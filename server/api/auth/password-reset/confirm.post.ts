@@ -7,9 +7,9 @@ import { redeemUserToken } from '~~/server/services/accounts/users'
 export default defineEventHandler(async (event) => {
   const { token, password } = await readValidatedBody(event, zodParser(ResetConfirmBody))
   const ip = clientIp(event)
-  await assertAttemptAllowed(event, 'reset-confirm', null, ip)
-  if (!await redeemUserToken(token, password)) {
-    await recordAttempt('reset-confirm', null, ip)
+  await assertAttemptAllowed(useDb(), event, 'reset-confirm', null, ip)
+  if (!await redeemUserToken(useDb(), token, password)) {
+    await recordAttempt(useDb(), 'reset-confirm', null, ip)
     throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'This link is not valid any more. Ask for a new one.' })
   }
   return { ok: true }

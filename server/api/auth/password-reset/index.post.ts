@@ -11,8 +11,8 @@ import { mailPasswordReset } from '~~/server/services/accounts/requests'
 export default defineEventHandler(async (event) => {
   const { email } = await readValidatedBody(event, zodParser(ResetRequestBody))
   const ip = clientIp(event)
-  await assertAttemptAllowed(event, 'reset-request', email, ip)
-  await recordAttempt('reset-request', email, ip)
-  afterAnswer(event, 'password reset mail', () => mailPasswordReset(email))
+  await assertAttemptAllowed(useDb(), event, 'reset-request', email, ip)
+  await recordAttempt(useDb(), 'reset-request', email, ip)
+  afterAnswer(event, 'password reset mail', () => mailPasswordReset(useDb(), email))
   return { ok: true }
 })

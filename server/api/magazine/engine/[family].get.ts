@@ -3,5 +3,5 @@ import { MagazineFamilyParams, MagazineListQuery, storiesByEngineFamily } from '
 export default defineEventHandler(async (event) => {
   const { family } = await getValidatedRouterParams(event, zodParser(MagazineFamilyParams))
   const { page } = await getValidatedQuery(event, zodParser(MagazineListQuery))
-  return storiesByEngineFamily(family, page)
+  return storiesByEngineFamily(useDb(), family, page)
 })

@@ -3,5 +3,5 @@ import { MagazineListQuery, MagazinePartParams, storiesByPartType } from '~~/ser
 export default defineEventHandler(async (event) => {
   const { type } = await getValidatedRouterParams(event, zodParser(MagazinePartParams))
   const { page } = await getValidatedQuery(event, zodParser(MagazineListQuery))
-  return storiesByPartType(type, page)
+  return storiesByPartType(useDb(), type, page)
 })

@@ -3,5 +3,5 @@ import { MagazineListQuery, MagazineTagParams, storiesByTag } from '~~/server/se
 export default defineEventHandler(async (event) => {
   const { tag } = await getValidatedRouterParams(event, zodParser(MagazineTagParams))
   const { page } = await getValidatedQuery(event, zodParser(MagazineListQuery))
-  return { tag, ...await storiesByTag(tag, page) }
+  return { tag, ...await storiesByTag(useDb(), tag, page) }
 })

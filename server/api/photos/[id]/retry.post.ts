@@ -7,5 +7,5 @@ const Params = z.object({ id: z.coerce.number().int().positive() })
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const { id } = await getValidatedRouterParams(event, zodParser(Params))
-  return { photo: await retryPhoto(user, id) }
+  return { photo: await retryPhoto(useDb(), user, id) }
 })

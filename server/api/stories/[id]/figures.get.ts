@@ -17,5 +17,5 @@ export default defineEventHandler(async (event): Promise<StoryFigures> => {
   const uses = query.uses === undefined
     ? undefined
     : { all: query.uses === 'all', ids: query.uses && query.uses !== 'all' ? query.uses.split(',').map(Number) : [], buildSheet: query.sheet === '1', dayReport: query.day === '1' }
-  return getStoryFigures(user, params.id, uses)
+  return getStoryFigures(useDb(), user, params.id, uses)
 })

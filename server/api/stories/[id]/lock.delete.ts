@@ -4,5 +4,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<LockResponse> => {
   const { user, params } = await requireStoryRoute(event)
-  return releaseStoryLock(user, params.id)
+  return releaseStoryLock(useDb(), user, params.id)
 })

@@ -5,5 +5,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 export default defineEventHandler(async (event): Promise<LockResponse> => {
   const { user, params } = await requireStoryRoute(event)
   const body = await readValidatedBody(event, zodParser(LockBody))
-  return takeStoryLock(user, params.id, body.takeOver)
+  return takeStoryLock(useDb(), user, params.id, body.takeOver)
 })

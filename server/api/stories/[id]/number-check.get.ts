@@ -6,5 +6,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 export default defineEventHandler(async (event): Promise<NumberCheckResult> => {
   const { user, params } = await requireStoryRoute(event)
   setResponseHeader(event, 'Cache-Control', 'no-store')
-  return runNumberCheck(user, params.id)
+  return runNumberCheck(useDb(), user, params.id)
 })

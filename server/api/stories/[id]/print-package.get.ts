@@ -5,5 +5,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event) => {
   const { user, params } = await requireStoryRoute(event)
-  return sendPrintPackage(event, await deskFigureStory(user, params.id))
+  return sendPrintPackage(useDb(), event, await deskFigureStory(useDb(), user, params.id))
 })

@@ -4,5 +4,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<TransitionListResponse> => {
   const { user, params } = await requireStoryRoute(event)
-  return { transitions: await listTransitions(user, params.id) }
+  return { transitions: await listTransitions(useDb(), user, params.id) }
 })

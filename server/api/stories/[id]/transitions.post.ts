@@ -5,5 +5,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 export default defineEventHandler(async (event): Promise<TransitionResponse> => {
   const { user, params } = await requireStoryRoute(event)
   const body = await readValidatedBody(event, zodParser(TransitionBody))
-  return runTransition(user, params.id, body)
+  return runTransition(useDb(), user, params.id, body)
 })

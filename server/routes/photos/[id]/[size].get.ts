@@ -19,7 +19,7 @@ export default defineEventHandler(async (event) => {
   const params = Params.safeParse(getRouterParams(event))
   if (!params.success) notFound('No such photo.')
   const { id, size } = params.data
-  const found = await findReadablePhoto(await getCurrentUser(event), id)
+  const found = await findReadablePhoto(useDb(), await getCurrentUser(event), id)
   if (!found) notFound('No such photo.')
   const { row, desk } = found
 

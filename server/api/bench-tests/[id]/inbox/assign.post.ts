@@ -6,7 +6,7 @@ import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/
 
 export default defineEventHandler(async (event): Promise<CommitPullsResponse> => {
   const { user, params, benchTest } = await requireWorkspace(event, BenchTestParams)
-  const body = await readValidatedBody(event, batchParser(AssignInboxBody, 'items', input => inboxFileNames(params.id, listOf(input, 'items').map(i => (i as { fileId?: unknown } | null)?.fileId))))
+  const body = await readValidatedBody(event, batchParser(AssignInboxBody, 'items', input => inboxFileNames(useDb(), params.id, listOf(input, 'items').map(i => (i as { fileId?: unknown } | null)?.fileId))))
   const ids = await assignInboxFiles(useDb(), user.id, params.id, benchTest.default_standard as CorrectionStandard, body)
   setResponseStatus(event, 201)
   return { pulls: await pullSummaries(useDb(), params.id, ids) }

@@ -10,9 +10,9 @@ const Params = z.object({ id: z.coerce.number().int().positive() })
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...rolesAtLeast('writer'))
   const { id } = await getValidatedRouterParams(event, zodParser(Params))
-  const benchTest = await requireBenchTest(user, id)
+  const benchTest = await requireBenchTest(useDb(), user, id)
   const upload = await readPhotoUpload(event)
-  const result = await storeUploadedPhoto(user, benchTest.id, upload)
+  const result = await storeUploadedPhoto(useDb(), user, benchTest.id, upload)
   setResponseStatus(event, result.duplicate ? 200 : 201)
   return result
 })

@@ -4,9 +4,9 @@ import { findReaderStory, readerAnalysis, ReaderAnalysisQuery, readerCacheHeader
 export default defineEventHandler(async (event) => {
   const { slug } = await getValidatedRouterParams(event, zodParser(MagazineSlugParams))
   const query = await getValidatedQuery(event, zodParser(ReaderAnalysisQuery))
-  const story = await findReaderStory(slug, await getCurrentUser(event))
+  const story = await findReaderStory(useDb(), slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  const { analysis, problem } = await readerAnalysis(story, query)
+  const { analysis, problem } = await readerAnalysis(useDb(), story, query)
   if (!analysis) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: problem ?? 'This story has no data.' })
   return analysis
 })

@@ -10,7 +10,7 @@ const CardQuery = z.object({ v: z.string().max(80).optional() })
 export default defineEventHandler(async (event) => {
   const { slug } = await getValidatedRouterParams(event, zodParser(MagazineSlugParams))
   const { v } = await getValidatedQuery(event, zodParser(CardQuery))
-  const story = await readerFigureStory(event, slug)
+  const story = await readerFigureStory(useDb(), event, slug)
   const card = await socialCard(story)
   setResponseHeaders(event, { 'content-type': 'image/png', 'etag': card.etag })
   if (!story.preview) {

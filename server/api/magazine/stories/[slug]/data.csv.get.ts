@@ -7,9 +7,9 @@ import { sendCsvFile } from '~~/server/services/workspace/route'
 export default defineEventHandler(async (event) => {
   const { slug } = await getValidatedRouterParams(event, zodParser(MagazineSlugParams))
   const query = await getValidatedQuery(event, zodParser(ReaderAnalysisQuery))
-  const story = await findReaderStory(slug, await getCurrentUser(event))
+  const story = await findReaderStory(useDb(), slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  const { analysis, problem, source } = await readerAnalysis(story, query)
+  const { analysis, problem, source } = await readerAnalysis(useDb(), story, query)
   if (!analysis) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: problem ?? 'This story has no data.' })
   return sendCsvFile(event, `${slug}-data.csv`, storyDataCsv(source.data, analysis))
 })

@@ -5,7 +5,7 @@ import { findReaderStory, ReaderAnalysisQuery, readerCacheHeaders, readerFigures
 export default defineEventHandler(async (event) => {
   const { slug } = await getValidatedRouterParams(event, zodParser(MagazineSlugParams))
   const query = await getValidatedQuery(event, zodParser(ReaderAnalysisQuery))
-  const story = await findReaderStory(slug, await getCurrentUser(event))
+  const story = await findReaderStory(useDb(), slug, await getCurrentUser(event))
   readerCacheHeaders(event, story)
-  return readerFigures(story, query)
+  return readerFigures(useDb(), story, query)
 })

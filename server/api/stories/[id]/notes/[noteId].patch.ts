@@ -5,5 +5,5 @@ import { requireStoryRoute, StoryNoteParams } from '~~/server/services/stories/r
 export default defineEventHandler(async (event): Promise<{ note: StoryNote }> => {
   const { user, params } = await requireStoryRoute(event, StoryNoteParams)
   const body = await readValidatedBody(event, zodParser(UpdateNoteBody))
-  return { note: await updateNote(user, params.id, params.noteId, body) }
+  return { note: await updateNote(useDb(), user, params.id, params.noteId, body) }
 })

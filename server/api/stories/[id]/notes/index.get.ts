@@ -4,5 +4,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<NoteListResponse> => {
   const { user, params } = await requireStoryRoute(event)
-  return listNotes(user, params.id)
+  return listNotes(useDb(), user, params.id)
 })

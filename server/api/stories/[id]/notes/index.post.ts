@@ -5,7 +5,7 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 export default defineEventHandler(async (event): Promise<{ note: StoryNote }> => {
   const { user, params } = await requireStoryRoute(event)
   const body = await readValidatedBody(event, zodParser(CreateNoteBody))
-  const note = await addNote(user, params.id, body)
+  const note = await addNote(useDb(), user, params.id, body)
   setResponseStatus(event, 201)
   return { note }
 })

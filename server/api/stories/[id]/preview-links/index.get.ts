@@ -4,5 +4,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<{ links: PreviewLink[] }> => {
   const { user, params } = await requireStoryRoute(event)
-  return { links: await listPreviewLinks(user, params.id) }
+  return { links: await listPreviewLinks(useDb(), user, params.id) }
 })

@@ -5,7 +5,7 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 export default defineEventHandler(async (event): Promise<CreatedPreviewLink> => {
   const { user, params } = await requireStoryRoute(event)
   const body = await readValidatedBody(event, zodParser(CreatePreviewLinkBody))
-  const created = await createPreviewLink(user, params.id, body)
+  const created = await createPreviewLink(useDb(), user, params.id, body)
   setResponseStatus(event, 201)
   return created
 })

@@ -4,5 +4,5 @@ import { requireStoryRoute, StoryRevisionParams } from '~~/server/services/stori
 
 export default defineEventHandler(async (event): Promise<{ revision: StoryRevision }> => {
   const { user, params } = await requireStoryRoute(event, StoryRevisionParams)
-  return { revision: await getRevision(user, params.id, params.revisionId) }
+  return { revision: await getRevision(useDb(), user, params.id, params.revisionId) }
 })

@@ -5,5 +5,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 export default defineEventHandler(async (event): Promise<RevisionComparison> => {
   const { user, params } = await requireStoryRoute(event)
   const query = await getValidatedQuery(event, zodParser(RevisionCompareQuery))
-  return compareRevisions(user, params.id, query.from, query.to)
+  return compareRevisions(useDb(), user, params.id, query.from, query.to)
 })

@@ -4,5 +4,5 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 
 export default defineEventHandler(async (event): Promise<RevisionListResponse> => {
   const { user, params } = await requireStoryRoute(event)
-  return { revisions: await listRevisions(user, params.id) }
+  return { revisions: await listRevisions(useDb(), user, params.id) }
 })

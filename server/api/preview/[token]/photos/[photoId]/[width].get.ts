@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const token = previewTokenParam(event)
   const params = Params.safeParse(getRouterParams(event))
   if (!params.success) notFound('No such photo.')
-  const row = await previewPhoto(token, params.data.photoId)
+  const row = await previewPhoto(useDb(), token, params.data.photoId)
   const variant = row.status === 'ready' ? parseStoredVariants(row.variants).find(v => v.width === params.data.width) : undefined
   if (!variant) notFound('No such photo size.')
   const object = await streamPhotoObject(variant.key)

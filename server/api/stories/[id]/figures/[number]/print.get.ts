@@ -7,6 +7,6 @@ import { requireStoryRoute } from '~~/server/services/stories/route'
 export default defineEventHandler(async (event) => {
   const { user, params } = await requireStoryRoute(event, PrintFigureParams)
   const query = await getValidatedQuery(event, zodParser(PrintExportQuery))
-  const file = await storyPrintFile(await deskFigureStory(user, params.id), params.number, query.format, query.columns)
+  const file = await storyPrintFile(useDb(), await deskFigureStory(useDb(), user, params.id), params.number, query.format, query.columns)
   return sendDownload(event, file)
 })

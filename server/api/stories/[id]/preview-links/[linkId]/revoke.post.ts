@@ -4,5 +4,5 @@ import { requireStoryRoute, StoryLinkParams } from '~~/server/services/stories/r
 
 export default defineEventHandler(async (event): Promise<{ link: PreviewLink }> => {
   const { user, params } = await requireStoryRoute(event, StoryLinkParams)
-  return { link: await revokePreviewLink(user, params.id, params.linkId) }
+  return { link: await revokePreviewLink(useDb(), user, params.id, params.linkId) }
 })

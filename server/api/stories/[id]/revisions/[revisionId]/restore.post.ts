@@ -5,5 +5,5 @@ import { requireStoryRoute, StoryRevisionParams } from '~~/server/services/stori
 export default defineEventHandler(async (event): Promise<StoryResponse> => {
   const { user, params } = await requireStoryRoute(event, StoryRevisionParams)
   const body = await readValidatedBody(event, zodParser(RestoreRevisionBody))
-  return { story: await restoreRevision(user, params.id, params.revisionId, body.version) }
+  return { story: await restoreRevision(useDb(), user, params.id, params.revisionId, body.version) }
 })
