@@ -1,5 +1,5 @@
 import type { AnalysisUnits } from '#shared/types/analysis'
-import type { AnalysisResponse } from '#shared/types/workspace'
+import type { AnalysisResponse } from '#shared/types/analysis-results'
 import type { CorrectionStandard } from '#shared/dyno'
 
 export interface AnalysisChoice {

@@ -1,4 +1,5 @@
-import type { BenchTest, BenchTestDetail, BuildSheet, BuildSheetInput, UpdateBenchTestInput } from '#shared/types/workspace'
+import type { BenchTest, BenchTestDetail, UpdateBenchTestInput } from '#shared/types/bench-tests'
+import type { BuildSheet, BuildSheetInput } from '#shared/types/build-sheets'
 
 export const benchTestKey = (id: number) => `bench-test:${id}`
 

@@ -1,4 +1,4 @@
-import type { BenchTest, BenchTestSummary, CreateBenchTestInput } from '#shared/types/workspace'
+import type { BenchTest, BenchTestSummary, CreateBenchTestInput } from '#shared/types/bench-tests'
 
 export const benchTestsKey = (deleted: boolean, q = '') => `bench-tests:${deleted ? 'deleted' : 'live'}:${q}`
 

@@ -1,4 +1,6 @@
-import type { AssignInboxInput, InboxFile, InboxState, PullFilePreview, PullSummary } from '#shared/types/workspace'
+import type { AssignInboxInput, InboxFile, InboxState } from '#shared/types/inbox'
+import type { PullFilePreview } from '#shared/types/pull-imports'
+import type { PullSummary } from '#shared/types/pulls'
 import type { ColumnRole } from '#shared/dyno'
 import type { ProposalSource } from '#shared/utils/setup-proposal'
 import type { WeatherDraft } from './usePullImport'

@@ -1,4 +1,4 @@
-import type { CreatedOperatorLink, CreateOperatorLinkInput, OperatorLink } from '#shared/types/workspace'
+import type { CreatedOperatorLink, CreateOperatorLinkInput, OperatorLink } from '#shared/types/operator-links'
 
 export const operatorLinksKey = (benchTestId: number) => `operator-links:${benchTestId}`
 

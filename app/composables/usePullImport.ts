@@ -1,9 +1,7 @@
 import { proposeSetups, type ProposalSource, type SetupForProposal } from '#shared/utils/setup-proposal'
 import { parsePullCsv, type ColumnRole, type Problem } from '#shared/dyno'
-import {
-  CommitPullsBody, PULL_LIMITS,
-  type CommitPullsResponse, type ImportRefusedData, type PreviewPullsResponse, type PullFilePreview,
-} from '#shared/types/workspace'
+import { CommitPullsBody, type CommitPullsResponse, type ImportRefusedData, type PreviewPullsResponse, type PullFilePreview } from '#shared/types/pull-imports'
+import { PULL_LIMITS } from '#shared/types/workspace'
 import { formNumber } from '#shared/utils/form-values'
 import { withColumnRole } from '#shared/utils/pull-columns'
 import { apiFieldIssues, apiMessage, apiStatus } from '~/utils/apiErrors'

@@ -1,4 +1,4 @@
-import type { PullList, PullSummary, UpdatePullInput } from '#shared/types/workspace'
+import type { PullList, PullSummary, UpdatePullInput } from '#shared/types/pulls'
 
 export const pullsKey = (benchTestId: number) => `pulls:${benchTestId}`
 

@@ -1,4 +1,4 @@
-import type { CreateSetupInput, IdleCheck, IdleCheckInput, Setup, UpdateSetupInput } from '#shared/types/workspace'
+import type { CreateSetupInput, IdleCheck, IdleCheckInput, Setup, UpdateSetupInput } from '#shared/types/setups'
 
 export const deletedSetupsKey = (benchTestId: number) => `setups-deleted:${benchTestId}`
 

@@ -3,7 +3,7 @@ import { memoOn } from '#shared/utils/object-memo'
 import { withPageCurves } from '#shared/utils/page-curves'
 import type { StoryFigures } from '#shared/types/stories'
 import type { AnalysisUnits } from '#shared/types/analysis'
-import type { AnalysisResponse } from '#shared/types/workspace'
+import type { AnalysisResponse } from '#shared/types/analysis-results'
 import type { CorrectionStandard } from '#shared/dyno'
 
 export const storyPageKey = (slug: string) => `magazine:story:${slug}`

@@ -4,7 +4,7 @@
 // makes a claim about the data (idle vacuum falls as duration grows, the manifolds
 // cross, the gain is inside repeatability), `check` tests that claim against the
 // analysis first and the seed stops if it does not hold. All names are invented.
-import type { AnalysisResponse, AnalysisRow } from '../../shared/types/workspace'
+import type { AnalysisResponse, AnalysisRow } from '../../shared/types/analysis-results'
 import { DEMO_BENCH_TESTS } from '../../server/db/demo/bench-tests'
 import { DEMO_MAGAZINE_TESTS } from '../../server/db/demo/magazine-tests'
 import type { PhotoScene } from './photo-scenes'

@@ -4,7 +4,7 @@
 // build hook in nuxt.config.ts. Answers are plain data; errors come back as answers.
 import type { MessagePort } from 'node:worker_threads'
 import type { ZodType } from 'zod'
-import { CommitPullsBody, PreviewPullsBody } from '../../shared/types/workspace'
+import { CommitPullsBody, PreviewPullsBody } from '../../shared/types/pull-imports'
 import type { CorrectionStandard } from '../../shared/dyno/index'
 import { checkPullFile, decodeUploadedBytes } from '../services/workspace/pull-check'
 import { checkPullBatchFiles } from '../services/workspace/pull-batch-check'

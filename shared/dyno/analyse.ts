@@ -6,7 +6,7 @@
 // links and the reader's page all call analyseBench, so they cannot disagree.
 // Sources of the formulas: shared/dyno/README.md.
 import { ANALYSIS_GRID, ANALYSIS_UNITS, type AnalysisUnits } from '../types/analysis'
-import type { AnalysisGains, AnalysisResponse, AnalysisRow, AnalysisSetup, CurvePoint, GainCurve } from '../types/workspace'
+import type { AnalysisGains, AnalysisResponse, AnalysisRow, AnalysisSetup, CurvePoint, GainCurve } from '../types/analysis-results'
 import { comparePulls, averagePulls } from './compare'
 import { correctionFactor, correctionStandardInfo } from './correction'
 import { downsampleForDisplay } from './display'

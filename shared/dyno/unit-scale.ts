@@ -2,7 +2,7 @@
 // reader's units. Its own module, free of the analysis' imports (the downsampling
 // library among them), because the reader's page scales curves in the browser.
 import type { AnalysisUnits } from '../types/analysis'
-import type { CurvePoint } from '../types/workspace'
+import type { CurvePoint } from '../types/analysis-results'
 import { hpToKw, lbFtToNm } from './units'
 
 export interface UnitScale { power: number, torque: number }

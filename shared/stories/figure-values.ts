@@ -2,7 +2,7 @@
 // the story's figures after reporting rounding; the figures and their options are in
 // shared/types/story-figures.ts.
 import { reportFixed, reportRound } from '../dyno/round'
-import type { AnalysisGains, AnalysisRow } from '../types/workspace'
+import type { AnalysisGains, AnalysisRow } from '../types/analysis-results'
 import {
   DEFAULT_DECIMALS, INLINE_FIGURES,
   type FigureSource, type FigureUnit, type FigureValueOptions, type InlineFigureKey, type InlineFigureValue,

@@ -1,5 +1,5 @@
 // How the analysis is computed and shown, without zod: the reader's graphs and
-// switches read these, and the analysis request schema (workspace.ts) builds on them.
+// switches read these, and the analysis request schema (analysis-results.ts) builds on them.
 
 /**
  * Grids of the analysis (common practice). A setup's curve is the mean of its pulls on

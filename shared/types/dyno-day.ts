@@ -2,7 +2,8 @@
 // change, swap checklist and planned pulls; one acceptance window for every pull) and
 // the day view built from it. Routes: docs/api/dyno-day.md.
 import { z } from 'zod'
-import { IdSchema, VersionSchema, type PullSummary } from './workspace'
+import type { PullSummary } from './pulls'
+import { IdSchema, VersionSchema } from './workspace'
 
 export const DAY_LIMITS = { maxSteps: 30, maxChecklistItems: 30, maxPlannedPulls: 20 } as const
 

@@ -4,7 +4,8 @@
 // built only from an edition's copy. Same data in, same figures out (story-view.ts).
 import type { BenchData } from '../dyno/analyse'
 import type { DayReport } from './dyno-day'
-import type { BuildSheet, Setup } from './workspace'
+import type { BuildSheet } from './build-sheets'
+import type { Setup } from './setups'
 import type { FigureUnit } from './story-figures'
 
 export const STORY_DATA_FORMAT = 1

@@ -15,7 +15,7 @@
 // largest part of a story page's JavaScript. A check answers in the shape of a
 // zod safeParse, so the server's, the editor's and the figures' issue lists read
 // both alike. The values themselves are computed in shared/stories/figure-values.ts.
-import type { AnalysisGains, AnalysisResponse } from './workspace'
+import type { AnalysisGains, AnalysisResponse } from './analysis-results'
 
 // ---------- reading options ----------
 

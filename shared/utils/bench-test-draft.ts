@@ -1,5 +1,5 @@
 // The bench test form as typed (all strings) and the body it sends.
-import type { BenchTest } from '../types/workspace'
+import type { BenchTest } from '../types/bench-tests'
 import type { CorrectionStandard } from '../dyno/types'
 import type { EngineFamily, PartType } from '../types/catalog'
 import { formNullableDate } from './form-values'

@@ -2,7 +2,7 @@
 // beside exhaust, with the valve events at 0.050 in worked out by shared/dyno camEvents,
 // then the figures that belong to the pair (lobe separation, centerlines, overlap).
 import { camEvents } from '../dyno/cam'
-import type { PartSpec } from '../types/workspace'
+import type { PartSpec } from '../types/setups'
 import { formatReported } from './figures'
 
 export type CamPart = Extract<PartSpec, { category: 'camshaft' }>

@@ -11,7 +11,7 @@ import type {
   MarkLineComponentOption,
   TooltipComponentOption,
 } from 'echarts/components'
-import type { CurvePoint } from '../types/workspace'
+import type { CurvePoint } from '../types/analysis-results'
 import { interpolateAt } from '../dyno/interpolate'
 
 export type PullChartOption = ComposeOption<

@@ -4,7 +4,7 @@
 // table under each graph and the written summary for screen readers. Pure: the
 // server's SVG render, the live graph and the tables all read the same numbers.
 import { scaleCurve } from '../dyno/unit-scale'
-import type { AnalysisGains, AnalysisResponse, CurvePoint } from '../types/workspace'
+import type { AnalysisGains, AnalysisResponse, CurvePoint } from '../types/analysis-results'
 import type { FigureComparison } from '../types/story-figures'
 import { formatFigureNumber } from '../stories/figure-values'
 import { curveValueAt, type ChartCurve, type ChartUnits } from './chart-options'

@@ -1,7 +1,7 @@
 // The fields of each part card, in the order the form shows them, so one card
 // component serves every category. Validation stays with PartSpecSchema
-// (shared/types/workspace.ts); this only says how to ask for each figure.
-import { EXHAUST_STYLES, INTAKE_MANIFOLD_TYPES, type PartCategory, type PartSpec } from '../types/workspace'
+// (shared/types/setups.ts); this only says how to ask for each figure.
+import { EXHAUST_STYLES, INTAKE_MANIFOLD_TYPES, type PartCategory, type PartSpec } from '../types/setups'
 
 export interface PartField {
   key: string

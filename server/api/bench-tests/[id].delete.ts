@@ -1,4 +1,4 @@
-import { ConfirmQuery } from '#shared/types/workspace'
+import { ConfirmQuery } from '#shared/types/bench-tests'
 import { deleteBenchTest } from '~~/server/services/workspace/bench-tests'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 

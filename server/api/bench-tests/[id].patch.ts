@@ -1,4 +1,4 @@
-import { UpdateBenchTestBody } from '#shared/types/workspace'
+import { UpdateBenchTestBody } from '#shared/types/bench-tests'
 import { updateBenchTest } from '~~/server/services/workspace/bench-tests'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 

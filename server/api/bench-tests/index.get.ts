@@ -1,5 +1,5 @@
 import { rolesAtLeast } from '#shared/accounts/roles'
-import { BenchTestListQuery } from '#shared/types/workspace'
+import { BenchTestListQuery } from '#shared/types/bench-tests'
 import { listBenchTests } from '~~/server/services/workspace/bench-tests'
 
 export default defineEventHandler(async (event) => {

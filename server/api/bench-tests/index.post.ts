@@ -1,5 +1,5 @@
 import { rolesAtLeast } from '#shared/accounts/roles'
-import { CreateBenchTestBody } from '#shared/types/workspace'
+import { CreateBenchTestBody } from '#shared/types/bench-tests'
 import { createBenchTest } from '~~/server/services/workspace/bench-test-core'
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import type { UploadLinkInfo } from '#shared/types/workspace'
+import type { UploadLinkInfo } from '#shared/types/operator-links'
 import { uploadLinkInfo } from '~~/server/services/workspace/operator-links'
 import { uploadToken } from '~~/server/services/workspace/route'
 

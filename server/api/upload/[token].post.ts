@@ -1,4 +1,4 @@
-import type { UploadReceipt } from '#shared/types/workspace'
+import type { UploadReceipt } from '#shared/types/operator-links'
 import { openUploadLink, receiveUploads } from '~~/server/services/workspace/operator-links'
 import { readOperatorUpload } from '~~/server/services/workspace/operator-upload'
 import { uploadToken } from '~~/server/services/workspace/route'

@@ -5,7 +5,9 @@
 // importPulls, the operator's file through the upload link.
 import type { Knex } from 'knex'
 import { kPaToInHg, fToC, hpToKw, inHgToKPa, lbFtToNm, syntheticPull, writeCsv, type SyntheticPullOptions, type TorqueModel, type Weather } from '../../../shared/dyno/index'
-import type { CreateBenchTestInput, CreateSetupInput, BuildSheetInput, IdleCheckInput } from '../../../shared/types/workspace'
+import type { CreateBenchTestInput } from '../../../shared/types/bench-tests'
+import type { BuildSheetInput } from '../../../shared/types/build-sheets'
+import type { CreateSetupInput, IdleCheckInput } from '../../../shared/types/setups'
 import { createBenchTest } from '../../services/workspace/bench-test-core'
 import { putBuildSheet } from '../../services/workspace/build-sheets'
 import { addIdleCheck, createSetup } from '../../services/workspace/setups'

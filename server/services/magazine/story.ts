@@ -4,7 +4,7 @@
 import type { H3Event } from 'h3'
 import type { Db } from '../../utils/db'
 import type { z } from 'zod'
-import { AnalysisQuery, type AnalysisQueryInput, type AnalysisResponse } from '#shared/types/workspace'
+import { AnalysisQuery, type AnalysisQueryInput, type AnalysisResponse } from '#shared/types/analysis-results'
 import type { ReaderEdition, StoryFigures, StoryReaderView } from '#shared/types/stories'
 import type { StoryData, StoryEditionSummary } from '#shared/types/story-data'
 import type { MagazineStoryResponse } from '#shared/types/magazine'

@@ -5,7 +5,7 @@
 import { correctedPulls, reportFixed, rpmGrid, setupCurve, unitScale, valueAt, writeCsv, type CsvCell, type PullPoint } from '../../../shared/dyno/index'
 import { ANALYSIS_GRID } from '../../../shared/types/analysis'
 import type { StoryData } from '../../../shared/types/story-data'
-import type { AnalysisGains, AnalysisResponse } from '../../../shared/types/workspace'
+import type { AnalysisGains, AnalysisResponse } from '../../../shared/types/analysis-results'
 
 const num = (v: number | null | undefined, places = 1): CsvCell => (v === null || v === undefined || !Number.isFinite(v) ? '' : Number(reportFixed(v, places)))
 const rpms = (list: readonly number[] | undefined): CsvCell => (list ?? []).map(r => reportFixed(r, 0)).join(' / ')

@@ -7,7 +7,8 @@ import {
   type AnalyseOptions, type AtRpm, type BenchAnalysis, type BenchData, type PullPoint, type Weather,
 } from '../../../shared/dyno/index'
 import { ANALYSIS_GRID } from '../../../shared/types/analysis'
-import type { AnalysisQueryInput, AnalysisResponse, BenchTest } from '../../../shared/types/workspace'
+import type { AnalysisQueryInput, AnalysisResponse } from '../../../shared/types/analysis-results'
+import type { BenchTest } from '../../../shared/types/bench-tests'
 import { LruCache } from '#shared/utils/lru-cache'
 import { decodePoints } from './pull-points'
 import { httpError, invalidField } from '../../utils/http-errors'

@@ -3,7 +3,7 @@
 // tests can use it outside Nitro.
 import type { Knex } from 'knex'
 import type { Db } from '../../utils/db'
-import type { BenchTest, CreateBenchTestInput } from '../../../shared/types/workspace'
+import type { BenchTest, CreateBenchTestInput } from '../../../shared/types/bench-tests'
 import type { CorrectionStandard } from '../../../shared/dyno/index'
 import type { EngineFamily, PartType } from '../../../shared/types/catalog'
 import { withFreeSlug } from '../../utils/slug-retry'

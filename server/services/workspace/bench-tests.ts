@@ -2,7 +2,7 @@
 // WHERE). Creation and the DTO live in bench-test-core.ts.
 import type { Db } from '../../utils/db'
 import type { CurrentUser } from '../../../shared/types/users'
-import type { BenchTest, BenchTestDetail, BenchTestSummary, UpdateBenchTestInput } from '../../../shared/types/workspace'
+import type { BenchTest, BenchTestDetail, BenchTestSummary, UpdateBenchTestInput } from '../../../shared/types/bench-tests'
 import { visibleBenchTests } from './bench-test-access'
 import { benchTestById, toBenchTest, withOwner, type BenchTestRow } from './bench-test-core'
 import { confirmDeletion, invalidField, missing, staleVersion } from '../../utils/http-errors'

@@ -1,7 +1,7 @@
 // The build sheet: one per bench test, written whole (PUT) with the version read.
 import type { Db } from '../../utils/db'
 import { ciToLiters, displacementCi } from '../../../shared/dyno/index'
-import type { BuildSheet, BuildSheetInput } from '../../../shared/types/workspace'
+import type { BuildSheet, BuildSheetInput } from '../../../shared/types/build-sheets'
 import { httpError, staleVersion } from '../../utils/http-errors'
 import { asNumberOrNull, isoTimeRequired } from '../../utils/rows'
 

@@ -2,7 +2,8 @@
 // to a setup runs the same check and insert as the writer's own import.
 import type { Db } from '../../utils/db'
 import type { ColumnRole, CorrectionStandard } from '../../../shared/dyno/index'
-import type { AssignInboxInput, InboxFile, InboxState, PullFilePreview } from '../../../shared/types/workspace'
+import type { AssignInboxInput, InboxFile, InboxState } from '../../../shared/types/inbox'
+import type { PullFilePreview } from '../../../shared/types/pull-imports'
 import { insertCheckedPulls } from './pull-import'
 import { checkStoredPullBatch, checkUploadedFiles } from './pull-pool'
 import { httpError, missing } from '../../utils/http-errors'

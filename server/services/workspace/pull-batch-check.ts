@@ -2,7 +2,8 @@
 // route runs it in the check pool (server/pull-worker/), the inbox and the seed call it
 // through checkPullBatch (server/services/workspace/pull-import.ts). Pure: no h3, no database.
 import type { CorrectionStandard } from '../../../shared/dyno/index'
-import type { ImportProblem, ImportRefusedData } from '../../../shared/types/workspace'
+import type { ImportRefusedData } from '../../../shared/types/pull-imports'
+import type { ImportProblem } from '../../../shared/types/pulls'
 import { capProblems, checkPullFile, weatherProblems } from './pull-check'
 import type { CheckedPull, PullToImport } from './pull-import'
 

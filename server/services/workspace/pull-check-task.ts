@@ -3,7 +3,8 @@
 // chunks, moved as they arrived (server/utils/port-bytes.ts); the worker takes them.
 import type { MessagePort } from 'node:worker_threads'
 import type { ColumnRole, CorrectionStandard, Weather } from '../../../shared/dyno/index'
-import { PULL_LIMITS, type PullFilePreview } from '../../../shared/types/workspace'
+import type { PullFilePreview } from '../../../shared/types/pull-imports'
+import { PULL_LIMITS } from '../../../shared/types/workspace'
 import type { CheckedPull } from './pull-import'
 
 export type PullCheckTask

@@ -2,7 +2,9 @@
 // refusals (empty, too big, binary, garbage), then shared/dyno's parser, shaped into
 // the preview the import page shows. Pure; used by the import, the inbox and the seed.
 import { assertWeather, correctionProblems, downsampleForDisplay, parsePullCsv, peakOf, type ColumnRole, type CorrectionStandard, type ParsedPull, type Problem, type Weather } from '../../../shared/dyno/index'
-import { PULL_LIMITS, type ImportProblem, type PullFilePreview } from '../../../shared/types/workspace'
+import type { PullFilePreview } from '../../../shared/types/pull-imports'
+import type { ImportProblem } from '../../../shared/types/pulls'
+import { PULL_LIMITS } from '../../../shared/types/workspace'
 
 export interface CheckedPullFile {
   name: string

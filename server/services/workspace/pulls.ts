@@ -3,7 +3,7 @@
 // weather, move to another setup), each with the version read.
 import type { Db } from '../../utils/db'
 import { REPEATABILITY_PCT, assertWeather, pullFactor, scalePoints, setupCurve, type CorrectionStandard, type PowerUnit, type Problem, type TorqueUnit, type VacuumUnit } from '../../../shared/dyno/index'
-import type { PullDetail, PullList, PullSummary, SetupRepeatability, UpdatePullInput } from '../../../shared/types/workspace'
+import type { PullDetail, PullList, PullSummary, SetupRepeatability, UpdatePullInput } from '../../../shared/types/pulls'
 import { loadGridPoints, weatherOf, loadPullMeta } from './analysis'
 import { decodePoints } from './pull-points'
 import { bumpLiveMark } from './live-marks'

@@ -3,7 +3,7 @@
 // the bench test row so two requests cannot interleave them.
 import type { Knex } from 'knex'
 import type { Db } from '../../utils/db'
-import type { CreateSetupInput, IdleCheck, IdleCheckInput, PartSpec, Setup, UpdateSetupInput } from '../../../shared/types/workspace'
+import type { CreateSetupInput, IdleCheck, IdleCheckInput, PartSpec, Setup, UpdateSetupInput } from '../../../shared/types/setups'
 import { confirmDeletion, invalidField, missing, staleVersion } from '../../utils/http-errors'
 import { isoTime, isoTimeRequired, parseJsonColumn, asBool } from '../../utils/rows'
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { PartSpecSchema } from '#shared/types/workspace'
+import { PartSpecSchema } from '#shared/types/setups'
 import { emptyPartDraft, partFromDraft, partToDraft } from '#shared/utils/part-fields'
 import { formNullableNumber, formNumber } from '#shared/utils/form-values'
 import { formatReported, formatSigned } from '#shared/utils/figures'

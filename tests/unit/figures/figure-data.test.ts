@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import type { AnalysisResponse, CurvePoint } from '#shared/types/workspace'
+import type { AnalysisResponse, CurvePoint } from '#shared/types/analysis-results'
 import {
   clipPoints, convertPoints, gainCurves, gainSummary, graphDataTable, graphSetups, overlayCurves,
   overlaySummary, resultsTableRows, signedFigure, thinCurve,

@@ -1,7 +1,7 @@
 // A small hand-made figure source: two setups with round, readable figures, so
 // each check can name the value it expects. Invented numbers (demo data).
 import type { FigureSource } from '#shared/types/story-figures'
-import type { AnalysisGains, AnalysisRow } from '#shared/types/workspace'
+import type { AnalysisGains, AnalysisRow } from '#shared/types/analysis-results'
 
 export const BASE = 11
 export const CAM = 12

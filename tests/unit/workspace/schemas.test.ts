@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest'
-import { AnalysisQuery, CommitPullsBody, CreateBenchTestBody, PartSpecSchema, UpdatePullBody } from '#shared/types/workspace'
+import { AnalysisQuery } from '#shared/types/analysis-results'
+import { CreateBenchTestBody } from '#shared/types/bench-tests'
+import { CommitPullsBody } from '#shared/types/pull-imports'
+import { UpdatePullBody } from '#shared/types/pulls'
+import { PartSpecSchema } from '#shared/types/setups'
 
 const paths = (r: { success: boolean, error?: { issues: { path: PropertyKey[] }[] } }) => (r.error?.issues ?? []).map(i => i.path.join('.'))
 

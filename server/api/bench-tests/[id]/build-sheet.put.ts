@@ -1,4 +1,4 @@
-import { BuildSheetBody } from '#shared/types/workspace'
+import { BuildSheetBody } from '#shared/types/build-sheets'
 import { putBuildSheet } from '~~/server/services/workspace/build-sheets'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 

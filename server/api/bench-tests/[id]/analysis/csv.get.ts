@@ -1,4 +1,4 @@
-import { AnalysisQuery } from '#shared/types/workspace'
+import { AnalysisQuery } from '#shared/types/analysis-results'
 import { runAnalysis } from '~~/server/services/workspace/analysis'
 import { analysisCsv } from '~~/server/services/workspace/analysis-csv'
 import { findBenchTest } from '~~/server/services/workspace/bench-tests'

@@ -1,4 +1,4 @@
-import { AnalysisQuery, type AnalysisResponse } from '#shared/types/workspace'
+import { AnalysisQuery, type AnalysisResponse } from '#shared/types/analysis-results'
 import { runAnalysis } from '~~/server/services/workspace/analysis'
 import { findBenchTest } from '~~/server/services/workspace/bench-tests'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'

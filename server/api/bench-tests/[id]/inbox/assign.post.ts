@@ -1,5 +1,6 @@
 import type { CorrectionStandard } from '#shared/dyno'
-import { AssignInboxBody, type CommitPullsResponse } from '#shared/types/workspace'
+import { AssignInboxBody } from '#shared/types/inbox'
+import type { CommitPullsResponse } from '#shared/types/pull-imports'
 import { assignInboxFiles, inboxFileNames } from '~~/server/services/workspace/inbox'
 import { pullSummaries } from '~~/server/services/workspace/pulls'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'

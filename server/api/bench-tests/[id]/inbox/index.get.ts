@@ -1,4 +1,4 @@
-import { InboxListQuery } from '#shared/types/workspace'
+import { InboxListQuery } from '#shared/types/inbox'
 import { listInbox } from '~~/server/services/workspace/inbox'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 

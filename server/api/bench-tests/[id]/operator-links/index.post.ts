@@ -1,4 +1,4 @@
-import { CreateOperatorLinkBody, type CreatedOperatorLink } from '#shared/types/workspace'
+import { CreateOperatorLinkBody, type CreatedOperatorLink } from '#shared/types/operator-links'
 import { createOperatorLink } from '~~/server/services/workspace/operator-links'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 

@@ -1,4 +1,4 @@
-import { UpdatePullBody } from '#shared/types/workspace'
+import { UpdatePullBody } from '#shared/types/pulls'
 import { updatePull } from '~~/server/services/workspace/pulls'
 import { PullParams, requireWorkspace } from '~~/server/services/workspace/route'
 

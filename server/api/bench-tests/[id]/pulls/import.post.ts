@@ -1,4 +1,4 @@
-import type { CommitPullsResponse } from '#shared/types/workspace'
+import type { CommitPullsResponse } from '#shared/types/pull-imports'
 import type { CorrectionStandard } from '#shared/dyno'
 import { insertCheckedPulls } from '~~/server/services/workspace/pull-import'
 import { checkImportBody, receiveCheckBody } from '~~/server/services/workspace/pull-pool'

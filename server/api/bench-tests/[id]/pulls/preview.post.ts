@@ -1,4 +1,4 @@
-import type { PreviewPullsResponse } from '#shared/types/workspace'
+import type { PreviewPullsResponse } from '#shared/types/pull-imports'
 import { checkPreviewBody, receiveCheckBody } from '~~/server/services/workspace/pull-pool'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 

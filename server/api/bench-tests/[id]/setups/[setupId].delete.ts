@@ -1,4 +1,4 @@
-import { ConfirmQuery } from '#shared/types/workspace'
+import { ConfirmQuery } from '#shared/types/bench-tests'
 import { requireWorkspace, SetupParams } from '~~/server/services/workspace/route'
 import { deleteSetup } from '~~/server/services/workspace/setups'
 

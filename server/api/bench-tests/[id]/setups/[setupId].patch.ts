@@ -1,4 +1,4 @@
-import { UpdateSetupBody } from '#shared/types/workspace'
+import { UpdateSetupBody } from '#shared/types/setups'
 import { requireWorkspace, SetupParams } from '~~/server/services/workspace/route'
 import { updateSetup } from '~~/server/services/workspace/setups'
 

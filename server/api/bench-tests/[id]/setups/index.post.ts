@@ -1,4 +1,4 @@
-import { CreateSetupBody } from '#shared/types/workspace'
+import { CreateSetupBody } from '#shared/types/setups'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 import { createSetup } from '~~/server/services/workspace/setups'
 

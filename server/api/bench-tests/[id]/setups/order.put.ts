@@ -1,4 +1,4 @@
-import { SetupOrderBody } from '#shared/types/workspace'
+import { SetupOrderBody } from '#shared/types/setups'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 import { reorderSetups } from '~~/server/services/workspace/setups'
 

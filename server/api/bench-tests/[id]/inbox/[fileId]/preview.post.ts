@@ -1,4 +1,5 @@
-import { IdSchema, InboxPreviewBody } from '#shared/types/workspace'
+import { InboxPreviewBody } from '#shared/types/inbox'
+import { IdSchema } from '#shared/types/workspace'
 import { previewInboxFile } from '~~/server/services/workspace/inbox'
 import { BenchTestParams, requireWorkspace } from '~~/server/services/workspace/route'
 

@@ -1,4 +1,4 @@
-import { IdleCheckBody } from '#shared/types/workspace'
+import { IdleCheckBody } from '#shared/types/setups'
 import { requireWorkspace, SetupParams } from '~~/server/services/workspace/route'
 import { addIdleCheck } from '~~/server/services/workspace/setups'
 
