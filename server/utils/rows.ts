@@ -1,5 +1,13 @@
 // Conversions between MariaDB rows and the workspace DTOs' plain values.
 
+/** The column name of a DTO field: boreIn -> bore_in, displacementL -> displacement_l. */
+type ColumnName<S extends string> = S extends `${infer Head}${infer Tail}`
+  ? `${Head extends Lowercase<Head> ? Head : `_${Lowercase<Head>}`}${ColumnName<Tail>}`
+  : S
+
+/** A table's row typed from the DTO it becomes: the same fields under their column names and types. */
+export type RowOf<T> = { [K in keyof T & string as ColumnName<K>]: T[K] }
+
 /** ISO 8601 for a timestamp column (mysql2 gives Date objects; strings are tolerated). */
 export function isoTime(value: Date | string | null | undefined): string | null {
   if (value === null || value === undefined) return null

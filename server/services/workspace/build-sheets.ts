@@ -3,23 +3,10 @@ import type { Db } from '../../utils/db'
 import { ciToLiters, displacementCi } from '../../../shared/dyno/index'
 import type { BuildSheet, BuildSheetInput } from '../../../shared/types/build-sheets'
 import { httpError, staleVersion } from '../../utils/http-errors'
-import { asNumberOrNull, isoTimeRequired } from '../../utils/rows'
+import { asNumberOrNull, isoTimeRequired, type RowOf } from '../../utils/rows'
 
-interface BuildSheetRow {
-  bench_test_id: number
-  bore_in: number
-  stroke_in: number
-  cylinders: number
-  compression_ratio: number | null
-  heads: string
-  induction: string
-  fuel: string
-  ignition: string
-  exhaust: string
-  notes: string
-  version: number
-  updated_at: Date | string
-}
+/** The build_sheets row: the DTO's fields as columns, without the derived displacement. */
+type BuildSheetRow = Omit<RowOf<BuildSheet>, 'displacement_ci' | 'displacement_l' | 'updated_at'> & { updated_at: Date | string }
 
 function toBuildSheet(row: BuildSheetRow): BuildSheet {
   const boreIn = Number(row.bore_in)
