@@ -2,7 +2,6 @@
 // one thing only, dropping files into one bench test's inbox. The token is 32 random
 // bytes shown once; the database keeps its SHA-256.
 import { createHash, randomBytes } from 'node:crypto'
-import type { Knex } from 'knex'
 import type { Db } from '../../utils/db'
 import type { CreatedOperatorLink, CreateOperatorLinkInput, OperatorLink, OperatorLinkState, UploadLinkInfo, UploadReceipt } from '../../../shared/types/operator-links'
 import { OPERATOR_LINK_LIMITS, PULL_LIMITS } from '../../../shared/types/workspace'
@@ -70,7 +69,7 @@ async function linkById(db: Db, benchTestId: number, linkId: number): Promise<Op
   return toLink(row)
 }
 
-export async function createOperatorLink(db: Knex, userId: number, benchTestId: number, input: CreateOperatorLinkInput, baseUrl: string): Promise<CreatedOperatorLink> {
+export async function createOperatorLink(db: Db, userId: number, benchTestId: number, input: CreateOperatorLinkInput, baseUrl: string): Promise<CreatedOperatorLink> {
   const token = randomBytes(32).toString('base64url')
   const [id] = await db('operator_links').insert({
     bench_test_id: benchTestId,
@@ -84,7 +83,7 @@ export async function createOperatorLink(db: Knex, userId: number, benchTestId: 
   return { link: await linkById(db, benchTestId, Number(id)), url: `${baseUrl}/upload/${token}`, token }
 }
 
-export async function revokeOperatorLink(db: Knex, benchTestId: number, linkId: number): Promise<OperatorLink> {
+export async function revokeOperatorLink(db: Db, benchTestId: number, linkId: number): Promise<OperatorLink> {
   await linkById(db, benchTestId, linkId)
   await db('operator_links').where({ id: linkId, bench_test_id: benchTestId }).whereNull('revoked_at').update({ revoked_at: db.raw('NOW(3)') })
   return linkById(db, benchTestId, linkId)
@@ -137,7 +136,7 @@ export function cleanFileName(raw: string | undefined, fallback: string): string
  * Files into the inbox, all or none: the link row is locked so the rate limit and the
  * file allowance hold even when the operator sends several requests at once.
  */
-export async function receiveUploads(db: Knex, token: string, incoming: IncomingFile[]): Promise<UploadReceipt> {
+export async function receiveUploads(db: Db, token: string, incoming: IncomingFile[]): Promise<UploadReceipt> {
   if (incoming.length === 0 || incoming.length > PULL_LIMITS.maxFilesPerBatch) {
     for (const f of incoming) f.close()
     throw httpError(400, incoming.length === 0 ? 'No file was sent: attach one or more CSV files as "file".' : `Send at most ${PULL_LIMITS.maxFilesPerBatch} files at once.`)

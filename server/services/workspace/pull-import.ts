@@ -1,5 +1,5 @@
 // The one import path for pulls: the writer's import, the inbox assignment and the
-// demo seed all come through here. The core takes a Knex instance and imports what it
+// demo seed all come through here. The core takes its connection (db first) and imports what it
 // uses explicitly, because the seed runs under plain tsx, outside Nitro.
 import type { Knex } from 'knex'
 import type { Db } from '../../utils/db'
@@ -97,7 +97,7 @@ async function standardOf(db: Db, benchTestId: number): Promise<CorrectionStanda
 }
 
 /** Checks every file, then saves all of them in one transaction, or none. Returns the new pull ids in order. */
-export async function importPulls(db: Knex, benchTestId: number, files: readonly PullToImport[], uploader: PullUploader): Promise<number[]> {
+export async function importPulls(db: Db, benchTestId: number, files: readonly PullToImport[], uploader: PullUploader): Promise<number[]> {
   const checked = checkPullBatch(files, await standardOf(db, benchTestId))
   return db.transaction(trx => insertCheckedPulls(trx, benchTestId, checked, uploader))
 }
