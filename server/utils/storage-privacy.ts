@@ -1,6 +1,6 @@
 // Whether anyone on the network can list the bucket without credentials: photos'
 // originals (with their EXIF) and every pull file live there, so it must answer 403.
-import { anonymousListUrl } from '#shared/utils/bucket-listing'
+import { anonymousListUrl } from './bucket-listing'
 
 export type ListingCheck = 'private' | 'public' | 'unknown'
 let lastCheck: ListingCheck = 'unknown'

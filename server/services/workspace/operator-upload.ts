@@ -6,7 +6,7 @@
 import Busboy from 'busboy'
 import type { H3Event } from 'h3'
 import { PULL_LIMITS } from '#shared/types/workspace'
-import { SNIFF_BYTES, sniffFile } from '#shared/utils/file-sniff'
+import { SNIFF_BYTES, sniffFile } from '../../utils/file-sniff'
 import { limitedBody, stopReadingBody } from '../../utils/body-limit'
 import { cleanFileName } from './operator-links'
 import { IncomingFile } from './pull-pool'

@@ -31,7 +31,9 @@ function checkPool(): Piscina | null {
   if (pool !== undefined) return pool
   const filename = findWorkerFile(WORKER_FILE, process.env.PULL_CHECK_WORKER_FILE)
   if (!filename) {
-    console.warn(`[pull-check] ${WORKER_FILE} not found: pull checks run on the server's own thread (build the server to get the pool)`)
+    // Only a built server is expected to have it: the demo seed and the tools run from
+    // sources under tsx, where checking on their own thread is the plan, not a fault.
+    if (process.env.NODE_ENV === 'production') console.warn(`[pull-check] ${WORKER_FILE} not found: pull checks run on the server's own thread`)
     pool = null
     return pool
   }

@@ -2,7 +2,7 @@
 // GET /?list-type=2 on the bucket; path-style and virtual-hosted-style addressing as
 // described in the S3 user guide, "Virtual hosting of buckets").
 import { describe, expect, it } from 'vitest'
-import { anonymousListUrl } from '#shared/utils/bucket-listing'
+import { anonymousListUrl } from '../../../server/utils/bucket-listing'
 
 describe('anonymousListUrl', () => {
   it('AWS without an endpoint: virtual-hosted style in the region', () => {

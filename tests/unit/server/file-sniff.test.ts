@@ -2,7 +2,7 @@
 // annex B), PNG signature (PNG spec, section 5.2), "%PDF-" (ISO 32000-1, 7.5.2), ZIP
 // local file header 50 4B 03 04 (PKWARE APPNOTE 4.3.7); UTF-16 byte order marks (Unicode 2.13).
 import { describe, expect, it } from 'vitest'
-import { sniffFile } from '#shared/utils/file-sniff'
+import { sniffFile } from '../../../server/utils/file-sniff'
 
 const bytes = (...b: number[]) => new Uint8Array(b)
 const text = (s: string) => new TextEncoder().encode(s)
