@@ -86,10 +86,12 @@ end`,
     lua: `
 local text = ${lua(JSON.stringify(storyBody(writerBench)).slice(1, -1))}
 request = function()
-  local body = '{"version":' .. draft_version .. ',"autosave":true,"body":"' .. text .. '\\n\\nTyped at ' .. os.time() .. '."}'
+  local body = '{"version":' .. draft_version .. ',"autosave":true,"body":"' .. text .. '\\\\n\\\\nTyped at ' .. os.time() .. '."}'
   return wrk.format("PATCH", "/api/stories/" .. draft_id, { ["content-type"] = "application/json", cookie = ${lua(writer.cookie)}, origin = ${lua(origin)} }, body)
 end
 response = function(status, headers, body)
+  -- The first refusal each writer meets is printed: a count of non-2xx alone says nothing.
+  if status >= 300 and not told then told = true; io.stderr:write('writer answer ' .. status .. ': ' .. body:sub(1, 300) .. '\\n') end
   local v = body:match('"currentVersion":(%d+)') or body:match('"version":(%d+)')
   if v then draft_version = tonumber(v) end
 end

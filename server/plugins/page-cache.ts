@@ -7,6 +7,7 @@
 import type { H3Event } from 'h3'
 import redisDriver from 'unstorage/drivers/redis'
 import type { Encoding } from '../utils/compression'
+import { storyIdOfWrite, writeReachesReaders, type StoryVisibility } from '../utils/page-cache'
 
 // PAGE_CACHE_POLL_MS: tests set it long to show the shared store needs no polling.
 const POLL_MS = Number(process.env.PAGE_CACHE_POLL_MS) || 2000
@@ -19,6 +20,22 @@ function textBody(body: unknown): string | Buffer | null {
 }
 
 const isWrite = (method: string) => method !== 'GET' && method !== 'HEAD' && method !== 'OPTIONS'
+
+async function readersSee(path: string): Promise<boolean> {
+  const id = storyIdOfWrite(path)
+  if (id === null) return false
+  try {
+    const story = await useDb()('stories').where('id', id).first('state', 'published_edition_id') as StoryVisibility | undefined
+    return writeReachesReaders(path, story)
+  }
+  catch {
+    return true // unsure: drop, as before
+  }
+}
+
+// The poll's fingerprint covers only stories readers can see (or saw): a writer's
+// draft autosaves move MAX(updated_at) of the whole table every second.
+const PUBLIC_ROWS = 'state IN (\'published\', \'withdrawn\') OR published_edition_id IS NOT NULL'
 
 async function keepAndSend(event: H3Event, target: { key: string, slug: string | null }, identity: Buffer, encoding: Encoding | null): Promise<Buffer> {
   const res = event.node.res
@@ -59,8 +76,8 @@ export default defineNitroPlugin((nitroApp) => {
     if (event.context.pageCacheServed) return
     const res = event.node.res
     if (res.headersSent) return
-    // A change through the stories API reaches the readers' next answers on every server.
-    if (isWrite(event.method) && event.path.startsWith('/api/stories') && res.statusCode < 400) await invalidateStoryCache()
+    // A change through the stories API that readers can see reaches their next answers on every server.
+    if (isWrite(event.method) && event.path.startsWith('/api/stories') && res.statusCode < 400 && await readersSee(event.path)) await invalidateStoryCache()
 
     const raw = textBody(response.body)
     if (raw === null) return
@@ -108,7 +125,7 @@ export default defineNitroPlugin((nitroApp) => {
   let fingerprint: string | null = null
   const check = async () => {
     try {
-      const row = await useDb()('stories').first(useDb().raw('COUNT(*) AS n, MAX(updated_at) AS changed, MAX(published_at) AS published')) as { n: number, changed: Date | null, published: Date | null } | undefined
+      const row = await useDb()('stories').whereRaw(PUBLIC_ROWS).first(useDb().raw('COUNT(*) AS n, MAX(updated_at) AS changed, MAX(published_at) AS published, SUM(published_edition_id) AS editions')) as { n: number, changed: Date | null, published: Date | null, editions: number | null } | undefined
       const next = JSON.stringify(row ?? null)
       // Every process polls, so each drops only its own copy.
       if (fingerprint !== null && next !== fingerprint) await dropStoryCacheHere()

@@ -163,6 +163,31 @@ export function keptHeaders(headers: Record<string, unknown>): Record<string, st
   return kept
 }
 
+/** What a written story row says of its readers: enough to tell whether they can see it. */
+export interface StoryVisibility { state: string, published_edition_id: number | null }
+
+/**
+ * Whether a successful write to `path` (under /api/stories) can change what readers
+ * see: creating a draft, or saving, noting or locking a story no reader can see, cannot.
+ * Dropping every cached page on each draft autosave let 30 autosaves a second cut the
+ * readers' rate from about 16,000 to 99 requests a second (bench/load/run.ts). A
+ * workflow step, a deleted story, and anything done to a story that is or was live
+ * (it has a published edition, or is published or withdrawn) drops the cache.
+ */
+export function writeReachesReaders(path: string, story: StoryVisibility | undefined): boolean {
+  const m = /^\/api\/stories\/(\d+)(\/[^?]*)?/.exec(path)
+  if (!m) return false
+  if (m[2]?.startsWith('/transitions')) return true
+  if (!story) return true
+  return story.published_edition_id !== null || story.state === 'published' || story.state === 'withdrawn'
+}
+
+/** The story a write under /api/stories/<id> touched, if any. */
+export function storyIdOfWrite(path: string): number | null {
+  const m = /^\/api\/stories\/(\d+)/.exec(path)
+  return m ? Number(m[1]) : null
+}
+
 /**
  * Drop what shows this story, and every list (home, browse, tags, search, feeds),
  * since a publish, withdraw or edit can change them all, in this process and in the

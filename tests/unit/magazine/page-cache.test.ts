@@ -1,7 +1,7 @@
 // What the page cache may keep: anonymous GETs of the reader's own routes only,
 // keyed with a normalised query; invalidation drops one story and every list.
 import { describe, expect, it } from 'vitest'
-import { type CachedPage, MemoryPageStore, etagMatches, etagOf, pageCacheKeyFor } from '../../../server/utils/page-cache'
+import { type CachedPage, MemoryPageStore, etagMatches, etagOf, pageCacheKeyFor, storyIdOfWrite, writeReachesReaders } from '../../../server/utils/page-cache'
 import { packPage, unpackPage } from '../../../server/utils/page-cache-redis'
 
 describe('pageCacheKeyFor', () => {
@@ -82,5 +82,31 @@ describe('ETags', () => {
     expect(etagMatches('*', tag)).toBe(true)
     expect(etagMatches(etagOf(Buffer.from('<p>b</p>')), tag)).toBe(false)
     expect(etagMatches(undefined, tag)).toBe(false)
+  })
+})
+
+describe('writeReachesReaders: which story writes drop the readers\' cached pages', () => {
+  const draft = { state: 'draft', published_edition_id: null }
+  const inReview = { state: 'in_review', published_edition_id: null }
+  const live = { state: 'published', published_edition_id: 7 }
+  const correcting = { state: 'in_review', published_edition_id: 7 }
+  const withdrawn = { state: 'withdrawn', published_edition_id: 7 }
+
+  it('leaves them for what no reader can see: a new draft, and a draft\'s saves, notes and locks', () => {
+    expect(writeReachesReaders('/api/stories', undefined)).toBe(false)
+    for (const path of ['/api/stories/12', '/api/stories/12/notes', '/api/stories/12/lock', '/api/stories/12/preview-links'])
+      for (const story of [draft, inReview]) expect(writeReachesReaders(path, story), `${path} ${story.state}`).toBe(false)
+  })
+
+  it('drops them for a workflow step, a deleted story, and any write to a story that is or was live', () => {
+    expect(writeReachesReaders('/api/stories/12/transitions', draft)).toBe(true)
+    expect(writeReachesReaders('/api/stories/12', undefined)).toBe(true)
+    for (const story of [live, correcting, withdrawn]) expect(writeReachesReaders('/api/stories/12', story), story.state).toBe(true)
+  })
+
+  it('reads the story id from the path only under /api/stories/<id>', () => {
+    expect(storyIdOfWrite('/api/stories/42/notes?x=1')).toBe(42)
+    expect(storyIdOfWrite('/api/stories')).toBeNull()
+    expect(storyIdOfWrite('/api/stories/abc')).toBeNull()
   })
 })
