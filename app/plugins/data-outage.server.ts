@@ -8,6 +8,10 @@ export default defineNuxtPlugin({
     nuxtApp.hooks.hook('app:rendered', ({ ssrContext }) => {
       const event = ssrContext?.event
       if (!event) return
+      // payload._errors is where Nuxt keeps each failed useAsyncData/useFetch call of the
+      // render; it has no public hook for "this page's data failed", so this one plugin
+      // reads it (no composable does), and a Nuxt upgrade is checked by the outage drill
+      // (tests/api/zz-faults-outage-pages.test.ts).
       const failed = Object.values(nuxtApp.payload._errors ?? {}).some(error => error && (error.status ?? error.statusCode ?? 500) >= 500)
       if (!failed) return
       event.context.pageCache = undefined
