@@ -23,7 +23,7 @@ describe('the cap on concurrent pull checks', () => {
     expect((await checkAgain()).status).toBe(200)
 
     // Twenty slow checks at once: one runs, eight wait (the default queue), the rest are refused.
-    const text = `${pullCsv({ seed: 42 }).csv}${'# padding line for a slower check\n'.repeat(50_000)}`
+    const text = `${pullCsv({ seed: 42 }).csv}${'# padding line for a slower check\n'.repeat(100_000)}`
     let settled = 0
     const slow = Array.from({ length: 20 }, (_, i) => writer.post(`/api/bench-tests/${benchTestId}/pulls/preview`, { files: [{ name: `slow-${i}.csv`, text }] }).finally(() => { settled++ }))
     const until = Date.now() + 60_000
@@ -35,7 +35,13 @@ describe('the cap on concurrent pull checks', () => {
     }
     expect(queued).toBe(8)
 
-    const busy = await checkAgain()
+    // The queue drains as the one thread finishes checks: a check asked the moment a place
+    // came free is taken (200). Ask until one meets the full queue, while the slow ones last.
+    let busy = await checkAgain()
+    for (let i = 0; i < 40 && busy.status !== 503 && settled < 20; i++) {
+      await sleep(25)
+      busy = await checkAgain()
+    }
     expect(busy.status).toBe(503)
     expect(busy.body.message).toMatch(/checking as many files as it can right now\. Try again in a few seconds/)
     expect(Number(busy.headers.get('retry-after'))).toBeGreaterThan(0)
