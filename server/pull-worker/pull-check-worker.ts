@@ -12,6 +12,10 @@ import { encodePoints } from '../services/workspace/pull-points'
 import { pullCheckRowsCap, type PullCheckAnswer, type PullCheckRefusal, type PullCheckTask, type PullImportAnswer, type StoredPullToCheck } from '../services/workspace/pull-check-task'
 import type { PullToImport } from '../services/workspace/pull-import'
 import { moveToPort, takeFromPort } from '../utils/port-bytes'
+import { lowerWorkerThreadPriority } from '../utils/thread-priority'
+
+// Each pool thread, as it loads: the server's thread comes first for a core (PULL_CHECK_NICE).
+lowerWorkerThreadPriority()
 
 function lines(text: string): number {
   let n = 0
