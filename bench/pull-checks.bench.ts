@@ -102,7 +102,7 @@ try {
     const lines = [
       '# Pull-check benchmark',
       '',
-      `Measured by \`bench/pull-checks.bench.ts\` on ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC: ${cpus().length} cores, Node ${process.version}, the built server with its pull-check pool (piscina, \`PULL_CHECK_THREADS\` 1), MariaDB and s3rver on the same machine. Load average (1 min) at the start / end: ${loadBefore.toFixed(2)} / ${loadavg()[0]!.toFixed(2)}; other engineers' work shared the two cores.`,
+      `Measured by \`bench/pull-checks.bench.ts\` on ${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC: ${cpus().length} cores, Node ${process.version}, the built server with its pull-check pool (piscina, \`PULL_CHECK_THREADS\` 1, check thread at nice ${process.env.PULL_CHECK_NICE ?? 19}), MariaDB and s3rver on the same machine. Load average (1 min) at the start / end: ${loadBefore.toFixed(2)} / ${loadavg()[0]!.toFixed(2)}; other engineers' work shared the two cores.`,
       '',
       `A writer checks ${totalMb.toFixed(1)} MB of synthetic pull files: ${REQUESTS} \`POST .../pulls/preview\` requests of ${FILES_PER_REQUEST} files at once (${fileCount} files, about 173,000 rows each). Meanwhile a second client asks \`GET /api/health\` back to back (10 ms pause). Event-loop gaps are measured inside the server (perf_hooks.monitorEventLoopDelay, 10 ms resolution).`,
       '',
