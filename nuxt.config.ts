@@ -34,6 +34,10 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', secure: true, httpOnly: true },
     },
   },
+  // The app manifest (fetched by the browser to learn of prerendered pages and new builds)
+  // serves nothing here: no page is prerendered and no route rule acts in the browser. A
+  // navigation after a new deploy still reloads the page when an old chunk is gone.
+  experimental: { appManifest: false },
   compatibilityDate: '2026-11-01',
   nitro: {
     experimental: { tasks: true },
@@ -72,7 +76,20 @@ export default defineNuxtConfig({
       },
     },
   },
-  vite: { build: { sourcemap: false } },
+  vite: {
+    build: { sourcemap: false },
+    // No component of ours or of the packages the browser loads uses the Options API
+    // (data/methods/computed objects, mixins): without it Vue's runtime is smaller in
+    // every page's first load (bench/first-load.bench.ts). Pinia's option stores are
+    // Pinia's own and unaffected.
+    vue: { features: { optionsAPI: false } },
+    $client: {
+      // Dozens of chunks of a few hundred bytes each cost more than their code (their
+      // own import lists, a compression window each): Rollup merges chunks below this
+      // size into others where that runs no code a page did not run before.
+      build: { rollupOptions: { output: { experimentalMinChunkSize: 8 * 1024 } } },
+    },
+  },
   // Component tests mount .vue files: they are checked with the app's types, not the tools'.
   typescript: { strict: true, tsConfig: { include: ['../tests/components/**/*'] } },
   telemetry: false,
