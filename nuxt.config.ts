@@ -53,6 +53,12 @@ export default defineNuxtConfig({
       dir: fileURLToPath(new URL('./node_modules/@fontsource/merriweather/files', import.meta.url)),
       pattern: 'merriweather-latin-{400,700}-normal.woff',
     }],
+    // The production server's entry answers page-cache hits before Nitro's listener
+    // (server/node-server.ts); only for the node-server preset, so `nuxi dev` and the
+    // prerenderer keep their own entries.
+    modules: [(nitro) => {
+      if (nitro.options.preset === 'node-server') nitro.options.entry = fileURLToPath(new URL('./server/node-server.ts', import.meta.url))
+    }],
     hooks: {
       async compiled(nitro) {
         const { cp } = await import('node:fs/promises')

@@ -1,20 +1,23 @@
 // Page-cache hits answered before anything else runs. An anonymous reader's cached
 // page is bytes already made, in every encoding (server/utils/page-cache.ts), so a
-// hit needs none of h3's machinery: no request hooks, no route rules, no middleware
-// chain, no response hooks, each of them a few promises. This wraps the app's one
-// request handler (the one Nitro's HTTP server and its internal fetches call) and
-// answers a hit from the in-process store with one writeHead of headers prepared
-// once per page and encoding, and one end() of the stored bytes.
+// hit needs none of Nitro's or h3's machinery: no H3Event, no request hooks, no route
+// rules, no middleware chain, no response hooks, each of them objects and promises.
+// The server's entry (server/node-server.ts) calls this from Node's own 'request'
+// listener and hands everything it does not answer to Nitro's listener: it answers a
+// hit from the in-process store with one writeHead of headers prepared once per page
+// and encoding, and one end() of the stored bytes.
 //
-// It answers exactly what the middleware path answers (tests/api/*cache*, *delivery*):
-// the base security headers, the kept headers, ETag, Vary and a 304 for a current
-// copy. Everything else (a miss, a signed-in reader, any other method or address,
-// the shared Redis store, whose reads are asynchronous) goes on through the app as
-// before: server/middleware/05.page-cache.ts serves Redis hits and marks misses.
+// It answers exactly what the middleware path answers (tests/api/*cache*, *delivery*,
+// headers): the base security headers, the kept headers, ETag, Vary and a 304 for a
+// current copy. Everything else (a miss, a signed-in reader, any other method or
+// address, the shared Redis store, whose reads are asynchronous) goes on through the
+// app as before: server/middleware/05.page-cache.ts serves Redis hits and marks misses,
+// and serves the in-process hits too where this entry is not used (`nuxi dev`) or
+// PAGE_CACHE_EARLY_HITS=off.
 import type { IncomingMessage, ServerResponse } from 'node:http'
-import type { H3Event } from 'h3'
-import { baseSecurityHeaders } from '../utils/csp'
-import type { Encoding } from '../utils/compression'
+import { baseSecurityHeaders } from './csp'
+import { chooseEncoding, type Encoding } from './compression'
+import { etagMatches, MemoryPageStore, pageCacheKeyFor, PUBLIC_CACHE_CONTROL, usePageStore, type CachedPage } from './page-cache'
 
 type Variant = Encoding | 'identity'
 interface Prepared {
@@ -60,9 +63,6 @@ function encodingFor(header: string | undefined): Encoding | null {
 export function answerPageCacheHit(req: IncomingMessage, res: ServerResponse): boolean {
   const method = req.method
   if (method !== 'GET' && method !== 'HEAD') return false
-  // Nitro's requests to itself (a $fetch inside a render) carry stand-ins for req and
-  // res that take no list of raw headers: they go the long way, through the middleware.
-  if ('__unenv__' in req) return false
   const store = usePageStore()
   if (!(store instanceof MemoryPageStore) || store.size === 0) return false
   const target = pageCacheKeyFor(method, req.url ?? '/', req.headers.cookie ?? '')
@@ -85,18 +85,3 @@ export function answerPageCacheHit(req: IncomingMessage, res: ServerResponse): b
   res.end(variant === 'identity' ? page.identity : page.encoded[variant])
   return true
 }
-
-export default defineNitroPlugin((nitroApp) => {
-  // PAGE_CACHE_EARLY_HITS=off leaves hits to the middleware, for measuring what this saves
-  // (docs/bench/reader.md); the answers are the same either way.
-  if (process.env.PAGE_CACHE_EARLY_HITS === 'off') return
-  const app = nitroApp.h3App
-  const next = app.handler
-  const handler = ((event: H3Event) => {
-    if (answerPageCacheHit(event.node.req, event.node.res)) return Promise.resolve()
-    return next(event)
-  }) as typeof next
-  // h3 keeps its resolver on the handler (used for route lookups): keep it on the wrapper.
-  Object.assign(handler, next)
-  app.handler = handler
-})
