@@ -70,7 +70,7 @@ export function isEmbedPath(path: string): boolean {
 
 /**
  * The headers every answer carries (server/middleware/00.security-headers.ts, and the
- * page cache's early answers in server/plugins/page-cache-hits.ts): nothing may be
+ * page cache's early answers in server/utils/page-cache-hits.ts): nothing may be
  * framed by another site except the embed pages, whose CSP says frame-ancestors *.
  */
 export function baseSecurityHeaders(path: string): Record<string, string> {

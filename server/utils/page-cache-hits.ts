@@ -17,7 +17,7 @@
 import type { IncomingMessage, ServerResponse } from 'node:http'
 import { baseSecurityHeaders } from './csp'
 import { chooseEncoding, type Encoding } from './compression'
-import { etagMatches, MemoryPageStore, pageCacheKeyFor, PUBLIC_CACHE_CONTROL, usePageStore, type CachedPage } from './page-cache'
+import { etagMatches, hasSession, MemoryPageStore, pageCacheKeyFor, PUBLIC_CACHE_CONTROL, usePageStore, type CachedPage } from './page-cache'
 
 type Variant = Encoding | 'identity'
 interface Prepared {
@@ -59,27 +59,45 @@ function encodingFor(header: string | undefined): Encoding | null {
   return encoding
 }
 
+// Readers ask for a few addresses many times: each address's key is worked out once
+// (pageCacheKeyFor parses the URL, tries the eligible patterns and sorts the query),
+// for addresses of ordinary length, in a bounded map that starts again when full.
+const keys = new Map<string, string | null>()
+const MEMO_URL_CHARS = 512
+function keyFor(url: string): string | null {
+  let key = keys.get(url)
+  if (key === undefined) {
+    key = pageCacheKeyFor('GET', url, '')?.key ?? null
+    if (url.length > MEMO_URL_CHARS) return key
+    if (keys.size >= 1024) keys.clear()
+    keys.set(url, key)
+  }
+  return key
+}
+
 /** True when the request was answered from the page cache. */
 export function answerPageCacheHit(req: IncomingMessage, res: ServerResponse): boolean {
   const method = req.method
   if (method !== 'GET' && method !== 'HEAD') return false
   const store = usePageStore()
   if (!(store instanceof MemoryPageStore) || store.size === 0) return false
-  const target = pageCacheKeyFor(method, req.url ?? '/', req.headers.cookie ?? '')
-  if (!target) return false
-  const page = store.peek(target.key)
+  const headers = req.headers
+  if (headers.cookie && hasSession(headers.cookie)) return false
+  const key = keyFor(req.url ?? '/')
+  if (!key) return false
+  const page = store.peek(key)
   if (!page || page.status !== 200) return false
   let ready = prepared.get(page)
   if (!ready) {
-    ready = prepare(page, target.key.slice(0, target.key.indexOf('?')))
+    ready = prepare(page, key.slice(0, key.indexOf('?')))
     prepared.set(page, ready)
   }
-  if (etagMatches(req.headers['if-none-match'], page.etag)) {
+  if (etagMatches(headers['if-none-match'], page.etag)) {
     res.writeHead(304, ready.notModified)
     res.end()
     return true
   }
-  const encoding = encodingFor(req.headers['accept-encoding'] as string | undefined)
+  const encoding = encodingFor(headers['accept-encoding'])
   const variant: Variant = encoding && ready.ok[encoding] ? encoding : 'identity'
   res.writeHead(200, ready.ok[variant]!)
   res.end(variant === 'identity' ? page.identity : page.encoded[variant])

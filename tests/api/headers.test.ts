@@ -60,7 +60,7 @@ describe('cache headers of the reader\'s answers', () => {
     }
   })
 
-  // Hits are answered before the app's middleware (server/plugins/page-cache-hits.ts):
+  // Hits are answered before Nitro and the app's middleware (server/utils/page-cache-hits.ts):
   // they must say exactly what the answer that filled the cache said.
   it('a page-cache hit carries the headers and bytes of the answer that filled the cache, in every encoding and for HEAD', async () => {
     const base = new Client().base
