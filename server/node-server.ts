@@ -15,7 +15,7 @@ import { Server as HttpsServer } from 'node:https'
 import destr from 'destr'
 import { toNodeListener } from 'h3'
 import { useNitroApp, useRuntimeConfig } from 'nitropack/runtime'
-import { setupGracefulShutdown, startScheduleRunner, trapUnhandledNodeErrors } from 'nitropack/runtime/internal'
+import { setupGracefulShutdown, startScheduleRunner, trapUnhandledNodeErrors } from 'nitropack/runtime/internal/index'
 import { answerPageCacheHit } from './utils/page-cache-hits'
 
 const cert = process.env.NITRO_SSL_CERT
@@ -25,7 +25,20 @@ const nitroListener = toNodeListener(nitroApp.h3App)
 const listener = process.env.PAGE_CACHE_EARLY_HITS === 'off'
   ? nitroListener
   : (req: IncomingMessage, res: ServerResponse) => {
-      if (!answerPageCacheHit(req, res)) nitroListener(req, res)
+      let answered = false
+      try {
+        answered = answerPageCacheHit(req, res)
+      }
+      catch (error) {
+        // A fault in the early answer must not cost the reader the page: before
+        // anything is sent, the request goes the long way (the middleware serves it).
+        console.error('[page cache] early answer failed', error)
+        if (res.headersSent) {
+          res.destroy()
+          return
+        }
+      }
+      if (!answered) nitroListener(req, res)
     }
 const server = cert && key ? new HttpsServer({ key, cert }, listener) : new HttpServer(listener)
 const _port = destr<number | string | undefined>(process.env.NITRO_PORT || process.env.PORT)
