@@ -126,8 +126,9 @@ function forkChild(): PhotoChild {
     stdio: ['pipe', 'inherit', 'inherit', 'ipc'],
   })
   // Sizing can wait; answering readers cannot: on a small machine the scheduler
-  // should prefer the server's own thread (nice 10 by default).
-  try { if (proc.pid) setPriority(proc.pid, Number(process.env.PHOTO_WORKER_NICE ?? 10)) }
+  // should prefer the server's own thread (nice 19 by default, as pull checks:
+  // server/utils/thread-priority.ts).
+  try { if (proc.pid) setPriority(proc.pid, Number(process.env.PHOTO_WORKER_NICE ?? 19)) }
   catch { /* not permitted here: runs at normal priority */ }
   // An idle child never keeps the server (or a test run) alive; a running task's timer does.
   proc.unref()
