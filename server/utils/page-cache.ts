@@ -163,6 +163,9 @@ export function keptHeaders(headers: Record<string, unknown>): Record<string, st
   return kept
 }
 
+/** /api/stories/<id>, then what under it was written. */
+const STORY_WRITE = /^\/api\/stories\/(\d+)(\/[^?]*)?/
+
 /** What a written story row says of its readers: enough to tell whether they can see it. */
 export interface StoryVisibility { state: string, published_edition_id: number | null }
 
@@ -175,7 +178,7 @@ export interface StoryVisibility { state: string, published_edition_id: number |
  * (it has a published edition, or is published or withdrawn) drops the cache.
  */
 export function writeReachesReaders(path: string, story: StoryVisibility | undefined): boolean {
-  const m = /^\/api\/stories\/(\d+)(\/[^?]*)?/.exec(path)
+  const m = STORY_WRITE.exec(path)
   if (!m) return false
   if (m[2]?.startsWith('/transitions')) return true
   if (!story) return true
@@ -184,7 +187,7 @@ export function writeReachesReaders(path: string, story: StoryVisibility | undef
 
 /** The story a write under /api/stories/<id> touched, if any. */
 export function storyIdOfWrite(path: string): number | null {
-  const m = /^\/api\/stories\/(\d+)/.exec(path)
+  const m = STORY_WRITE.exec(path)
   return m ? Number(m[1]) : null
 }
 

@@ -8,12 +8,17 @@ import { readlinkSync } from 'node:fs'
 import { setPriority } from 'node:os'
 import { isMainThread } from 'node:worker_threads'
 
-/** The niceness checks run at unless PULL_CHECK_NICE says otherwise (0 to 19; 0 leaves it alone). */
+/** The niceness background work runs at unless its setting says otherwise (0 to 19; 0 leaves it alone). */
 export const DEFAULT_CHECK_NICE = 19
 
-export function checkThreadNice(value = process.env.PULL_CHECK_NICE): number {
+/** A nice setting (PULL_CHECK_NICE, PHOTO_WORKER_NICE): a whole number 0-19, else the default. */
+export function niceSetting(value: string | undefined): number {
   const n = Number(value ?? DEFAULT_CHECK_NICE)
   return Number.isInteger(n) && n >= 0 && n <= 19 ? n : DEFAULT_CHECK_NICE
+}
+
+export function checkThreadNice(value = process.env.PULL_CHECK_NICE): number {
+  return niceSetting(value)
 }
 
 /**

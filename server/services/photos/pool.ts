@@ -2,6 +2,7 @@ import { type ChildProcess, fork } from 'node:child_process'
 import { setPriority } from 'node:os'
 import type { Readable } from 'node:stream'
 import { Worker } from 'node:worker_threads'
+import { niceSetting } from '../../utils/thread-priority'
 import { findWorkerFile } from '../../utils/worker-files'
 
 // Photo decoding blocks a thread for seconds and takes about 900 MB for 24 MP, so
@@ -126,9 +127,8 @@ function forkChild(): PhotoChild {
     stdio: ['pipe', 'inherit', 'inherit', 'ipc'],
   })
   // Sizing can wait; answering readers cannot: on a small machine the scheduler
-  // should prefer the server's own thread (nice 19 by default, as pull checks:
-  // server/utils/thread-priority.ts).
-  try { if (proc.pid) setPriority(proc.pid, Number(process.env.PHOTO_WORKER_NICE ?? 19)) }
+  // should prefer the server's own thread (nice 19 by default, as pull checks).
+  try { if (proc.pid) setPriority(proc.pid, niceSetting(process.env.PHOTO_WORKER_NICE)) }
   catch { /* not permitted here: runs at normal priority */ }
   // An idle child never keeps the server (or a test run) alive; a running task's timer does.
   proc.unref()
