@@ -43,14 +43,11 @@ export async function getUserRow(db: Db, id: number): Promise<UserRow | undefine
 /** Creates a user; 409 when the e-mail is already registered (case-insensitively). */
 export async function createUser(db: Db, input: { email: string, displayName: string, role: Role, password?: string }): Promise<UserRow> {
   try {
-    const [id] = await db('users').insert({
-      email: input.email.toLowerCase(),
-      display_name: input.displayName,
-      role: input.role,
-      password_hash: input.password ? await hashPassword(input.password) : null,
+    const passwordHash = input.password ? await hashPassword(input.password) : null
+    return await db.transaction(async (trx) => {
+      const [id] = await trx('users').insert({ email: input.email.toLowerCase(), display_name: input.displayName, role: input.role, password_hash: passwordHash })
+      return toUserRow((await trx<UserDbRow>('users').where({ id }).first())!)
     })
-    const row = await db<UserDbRow>('users').where({ id }).first()
-    return toUserRow(row!)
   }
   catch (error) {
     if (isDuplicateEntry(error)) throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'An account with this e-mail already exists.', data: { issues: [{ path: 'email', message: 'Already registered' }] } })
@@ -92,11 +89,12 @@ export async function verifyUserPassword(db: Db, id: number, password: string): 
  */
 export async function setPassword(db: Db, id: number, password: string): Promise<number> {
   const passwordHash = await hashPassword(password)
-  await db.transaction(async (trx) => {
+  // One transaction: a new password never stands while the old sessions still do.
+  return db.transaction(async (trx) => {
     await trx('users').where({ id }).update({ password_hash: passwordHash })
     await cancelOpenTokens(trx, id)
+    return bumpSessionVersion(trx, id)
   })
-  return bumpSessionVersion(db, id)
 }
 
 function cancelOpenTokens(db: Db, userId: number) {

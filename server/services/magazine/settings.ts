@@ -65,8 +65,9 @@ export async function getSiteSettings(db: Db): Promise<SiteSettings> {
 export async function updateSiteSettings(db: Db, actorId: number, patch: SiteSettingsPatch): Promise<SiteSettingsView> {
   const { version, ...changes } = patch
   const keys = KEYS.filter(k => changes[k] !== undefined)
+  let saved: SiteSettingsView
   try {
-    await db.transaction(async (trx) => {
+    saved = await db.transaction(async (trx) => {
       const current = toView(await readRows(trx, true))
       if (current.version !== version) {
         throw httpError(409, `The settings were changed by ${current.updatedByName ?? 'someone else'} meanwhile. Reload them and make your change again.`, { currentVersion: current.version, current })
@@ -76,6 +77,7 @@ export async function updateSiteSettings(db: Db, actorId: number, patch: SiteSet
           .insert({ key, value: JSON.stringify(changes[key]), version: 1, updated_by: actorId })
           .onConflict('key').merge({ value: JSON.stringify(changes[key]), version: trx.raw('version + 1'), updated_by: actorId })
       }
+      return toView(await readRows(trx))
     })
   }
   catch (error) {
@@ -83,7 +85,7 @@ export async function updateSiteSettings(db: Db, actorId: number, patch: SiteSet
     if (isDuplicateEntry(error)) throw httpError(409, 'The settings were changed by someone else meanwhile. Reload them and make your change again.')
     throw error
   }
-  cached = undefined
+  cached = { view: saved, at: Date.now() }
   await dropInSiblings('site-settings')
-  return getSiteSettingsView(db)
+  return saved
 }

@@ -99,7 +99,7 @@ export async function storeUploadedPhoto(db: Db, user: CurrentUser, benchTestId:
   const originalKey = photoOriginalKey(prefix)
   await whilePhotoStorageAnswers(() => putPhotoObject(originalKey, upload.bytes, inspected.mime))
   try {
-    const id = await db.transaction(async (trx) => {
+    const row = await db.transaction(async (trx) => {
       // Uploads side by side into one bench test take their places one after the other.
       await trx('bench_tests').where({ id: benchTestId }).forUpdate().first('id')
       const last = await trx('photos').where('bench_test_id', benchTestId).max({ position: 'position' }).first()
@@ -120,11 +120,10 @@ export async function storeUploadedPhoto(db: Db, user: CurrentUser, benchTestId:
         uploaded_by: user.id,
       })
       await enqueuePhotoJob(trx, Number(id))
-      return Number(id)
+      return (await trx<PhotoRecord>('photos').where({ id }).first())!
     })
     nudgePhotoJobs()
-    const row = await db<PhotoRecord>('photos').where({ id }).first()
-    return { photo: toPhoto(row!), duplicate: false }
+    return { photo: toPhoto(row), duplicate: false }
   }
   catch (error) {
     await deletePhotoObjects([originalKey]).catch(() => { /* left for the orphan sweep */ })
@@ -189,12 +188,13 @@ export async function retryPhoto(db: Db, user: CurrentUser, id: number): Promise
   if (photo.status !== 'failed') {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Only a photo whose processing failed can be tried again.', data: { current: toPhoto(photo) } })
   }
-  await db.transaction(async (trx) => {
+  const row = await db.transaction(async (trx) => {
     await trx('photos').where({ id, status: 'failed' }).update({ status: 'pending', failure_reason: null })
     await enqueuePhotoJob(trx, id)
+    return (await trx<PhotoRecord>('photos').where({ id }).first())!
   })
   nudgePhotoJobs()
-  return toPhoto((await db<PhotoRecord>('photos').where({ id }).first())!)
+  return toPhoto(row)
 }
 
 /** For issue 6: a story may go to review only when every photo of its bench test has alt text. */

@@ -57,14 +57,17 @@ export async function createPreviewLink(db: Db, user: CurrentUser, storyId: numb
   const story = await requireStoryRow(db, user, storyId)
   if (!previewAllowed(story.state)) throw httpError(409, 'This story is published: readers see it on its own page now.')
   const token = randomBytes(32).toString('base64url')
-  const [id] = await db('story_preview_tokens').insert({
-    story_id: storyId,
-    token_hash: hashToken(token),
-    label: input.label ?? '',
-    created_by: user.id,
-    expires_at: db.raw('NOW(3) + INTERVAL ? HOUR', [input.expiresInHours ?? PREVIEW_LINK_LIMITS.defaultHours]),
+  // Written and read back in one transaction, as every create here: a saved row always gets its answer.
+  const row = await db.transaction(async (trx) => {
+    const [id] = await trx('story_preview_tokens').insert({
+      story_id: storyId,
+      token_hash: hashToken(token),
+      label: input.label ?? '',
+      created_by: user.id,
+      expires_at: trx.raw('NOW(3) + INTERVAL ? HOUR', [input.expiresInHours ?? PREVIEW_LINK_LIMITS.defaultHours]),
+    })
+    return await linkQuery(trx).where('story_preview_tokens.id', id).first() as PreviewRow
   })
-  const row = await linkQuery(db).where('story_preview_tokens.id', id).first() as PreviewRow
   return { link: toLink(row), token, url: `${appConfig().baseUrl}${STORY_PATHS.preview(token)}` }
 }
 

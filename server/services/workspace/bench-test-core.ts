@@ -83,9 +83,9 @@ async function uniqueSlug(db: Db, title: string): Promise<string> {
 
 export async function createBenchTest(db: Db, ownerId: number, input: CreateBenchTestInput): Promise<BenchTest> {
   // Two writers choosing the same title at once: the later one takes the next free slug.
-  const id = await withFreeSlug(async () => {
-    const [inserted] = await db('bench_tests').insert({
-      slug: await uniqueSlug(db, input.title),
+  return withFreeSlug(() => db.transaction(async (trx) => {
+    const [inserted] = await trx('bench_tests').insert({
+      slug: await uniqueSlug(trx, input.title),
       title: input.title,
       engine_family: input.engineFamily,
       part_type: input.partType,
@@ -97,7 +97,6 @@ export async function createBenchTest(db: Db, ownerId: number, input: CreateBenc
       owner_id: ownerId,
       default_standard: input.defaultStandard ?? 'sae-j1349-1990',
     })
-    return Number(inserted)
-  })
-  return benchTestById(db, id)
+    return benchTestById(trx, Number(inserted))
+  }))
 }

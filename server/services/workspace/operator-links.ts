@@ -71,16 +71,19 @@ async function linkById(db: Db, benchTestId: number, linkId: number): Promise<Op
 
 export async function createOperatorLink(db: Db, userId: number, benchTestId: number, input: CreateOperatorLinkInput, baseUrl: string): Promise<CreatedOperatorLink> {
   const token = randomBytes(32).toString('base64url')
-  const [id] = await db('operator_links').insert({
-    bench_test_id: benchTestId,
-    token_hash: hashToken(token),
-    label: input.label ?? '',
-    created_by: userId,
-    expires_at: db.raw('NOW(3) + INTERVAL ? HOUR', [input.expiresInHours]),
-    max_files: input.maxFiles ?? OPERATOR_LINK_LIMITS.defaultMaxFiles,
-    max_file_bytes: OPERATOR_LINK_LIMITS.maxFileBytes,
+  const link = await db.transaction(async (trx) => {
+    const [id] = await trx('operator_links').insert({
+      bench_test_id: benchTestId,
+      token_hash: hashToken(token),
+      label: input.label ?? '',
+      created_by: userId,
+      expires_at: trx.raw('NOW(3) + INTERVAL ? HOUR', [input.expiresInHours]),
+      max_files: input.maxFiles ?? OPERATOR_LINK_LIMITS.defaultMaxFiles,
+      max_file_bytes: OPERATOR_LINK_LIMITS.maxFileBytes,
+    })
+    return linkById(trx, benchTestId, Number(id))
   })
-  return { link: await linkById(db, benchTestId, Number(id)), url: `${baseUrl}/upload/${token}`, token }
+  return { link, url: `${baseUrl}/upload/${token}`, token }
 }
 
 export async function revokeOperatorLink(db: Db, benchTestId: number, linkId: number): Promise<OperatorLink> {

@@ -176,11 +176,10 @@ export async function updatePull(db: Db, benchTestId: number, pullId: number, in
     if (!target) throw httpError(409, `Setup ${input.setupId} is not a setup of this bench test (or it was deleted).`, { issues: [{ path: 'setupId', message: 'Not a setup of this bench test' }] })
     patch.setup_id = input.setupId
   }
-  const count = await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     const n = await trx('pulls').where({ id: pullId, bench_test_id: benchTestId, version: input.version }).update({ ...patch, version: trx.raw('version + 1') })
-    if (n) await bumpLiveMark(trx, benchTestId)
-    return n
+    if (!n) staleVersion(await getPullSummary(trx, benchTestId, pullId), 'pull')
+    await bumpLiveMark(trx, benchTestId)
+    return getPullSummary(trx, benchTestId, pullId)
   })
-  if (!count) staleVersion(await getPullSummary(db, benchTestId, pullId), 'pull')
-  return getPullSummary(db, benchTestId, pullId)
 }

@@ -91,7 +91,7 @@ async function hasLiveBaseline(trx: Knex.Transaction, benchTestId: number): Prom
 }
 
 export async function createSetup(db: Db, benchTestId: number, input: CreateSetupInput): Promise<Setup> {
-  const id = await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
     const baseline = input.baseline === true || !(await hasLiveBaseline(trx, benchTestId))
     if (baseline) await trx('setups').where({ bench_test_id: benchTestId }).update({ is_baseline: false })
@@ -103,9 +103,8 @@ export async function createSetup(db: Db, benchTestId: number, input: CreateSetu
       description: input.description ?? '',
       parts: JSON.stringify(input.parts ?? []),
     })
-    return Number(newId)
+    return getSetup(trx, benchTestId, Number(newId))
   })
-  return getSetup(db, benchTestId, id)
 }
 
 export async function updateSetup(db: Db, benchTestId: number, setupId: number, input: UpdateSetupInput): Promise<Setup> {
@@ -114,64 +113,68 @@ export async function updateSetup(db: Db, benchTestId: number, setupId: number, 
   if (input.label !== undefined) patch.label = input.label
   if (input.description !== undefined) patch.description = input.description
   if (input.parts !== undefined) patch.parts = JSON.stringify(input.parts)
-  const count = await db('setups').where({ id: setupId, bench_test_id: benchTestId, version: input.version }).whereNull('deleted_at')
-    .update({ ...patch, version: db.raw('version + 1') })
-  if (!count) staleVersion(await getSetup(db, benchTestId, setupId), 'setup')
-  return getSetup(db, benchTestId, setupId)
+  return db.transaction(async (trx) => {
+    const count = await trx('setups').where({ id: setupId, bench_test_id: benchTestId, version: input.version }).whereNull('deleted_at')
+      .update({ ...patch, version: trx.raw('version + 1') })
+    if (!count) staleVersion(await getSetup(trx, benchTestId, setupId), 'setup')
+    return getSetup(trx, benchTestId, setupId)
+  })
 }
 
 /** Soft delete; a deleted baseline hands the role to the first setup left. */
 export async function deleteSetup(db: Db, benchTestId: number, setupId: number, confirm: boolean): Promise<Setup> {
   const setup = await getSetup(db, benchTestId, setupId)
   if (setup.pullCount > 0 && !confirm) confirmDeletion('setup', 0, setup.pullCount)
-  await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
     await trx('setups').where({ id: setupId }).update({ deleted_at: trx.raw('CURRENT_TIMESTAMP(3)'), is_baseline: false, version: trx.raw('version + 1') })
     if (setup.isBaseline) {
       const next = await trx('setups').where({ bench_test_id: benchTestId }).whereNull('deleted_at').orderBy('position').orderBy('id').first('id')
       if (next) await trx('setups').where({ id: next.id }).update({ is_baseline: true })
     }
+    return getSetup(trx, benchTestId, setupId, { deleted: true })
   })
-  return getSetup(db, benchTestId, setupId, { deleted: true })
 }
 
 /** Back at the end of the order; the baseline again only when there is none. */
 export async function restoreSetup(db: Db, benchTestId: number, setupId: number): Promise<Setup> {
   await getSetup(db, benchTestId, setupId, { deleted: true })
-  await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
     const baseline = !(await hasLiveBaseline(trx, benchTestId))
     await trx('setups').where({ id: setupId }).update({ deleted_at: null, is_baseline: baseline, position: await nextPosition(trx, benchTestId), version: trx.raw('version + 1') })
+    return getSetup(trx, benchTestId, setupId)
   })
-  return getSetup(db, benchTestId, setupId)
 }
 
 export async function makeBaseline(db: Db, benchTestId: number, setupId: number): Promise<Setup[]> {
   await getSetup(db, benchTestId, setupId)
-  await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
     // Clear first: the unique baseline marker would refuse two at once.
     await trx('setups').where({ bench_test_id: benchTestId }).whereNot({ id: setupId }).update({ is_baseline: false })
     await trx('setups').where({ id: setupId }).update({ is_baseline: true })
+    return listSetups(trx, benchTestId)
   })
-  return listSetups(db, benchTestId)
 }
 
 export async function reorderSetups(db: Db, benchTestId: number, setupIds: number[]): Promise<Setup[]> {
-  await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     await lockBenchTest(trx, benchTestId)
     const live = (await trx('setups').where({ bench_test_id: benchTestId }).whereNull('deleted_at').pluck('id') as number[]).map(Number)
     const same = live.length === setupIds.length && new Set(setupIds).size === setupIds.length && setupIds.every(id => live.includes(id))
     if (!same) invalidField('setupIds', `List every setup of this bench test exactly once (${live.length} setups: ${live.join(', ')}).`)
     for (const [index, id] of setupIds.entries()) await trx('setups').where({ id }).update({ position: index + 1 })
+    return listSetups(trx, benchTestId)
   })
-  return listSetups(db, benchTestId)
 }
 
 export async function addIdleCheck(db: Db, benchTestId: number, setupId: number, input: IdleCheckInput, userId: number | null): Promise<IdleCheck> {
   await getSetup(db, benchTestId, setupId)
-  const [id] = await db('idle_checks').insert({ setup_id: setupId, idle_rpm: input.idleRpm, vacuum_inhg: input.vacuumInHg, note: input.note ?? '', created_by: userId })
-  return toIdleCheck((await db<IdleRow>('idle_checks').where({ id }).first())!)
+  return db.transaction(async (trx) => {
+    const [id] = await trx('idle_checks').insert({ setup_id: setupId, idle_rpm: input.idleRpm, vacuum_inhg: input.vacuumInHg, note: input.note ?? '', created_by: userId })
+    return toIdleCheck((await trx<IdleRow>('idle_checks').where({ id }).first())!)
+  })
 }
 
 export async function deleteIdleCheck(db: Db, benchTestId: number, setupId: number, checkId: number): Promise<void> {

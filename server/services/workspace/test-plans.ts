@@ -85,7 +85,7 @@ type StepToSave = PlanStepInput & { newSetupParts?: PartSpec[] }
 
 /** The whole plan replaces the stored one when `version` is the one stored; steps kept by id keep their day state and ticks. */
 export async function saveTestPlan(db: Db, userId: number, benchTestId: number, input: Omit<SavePlanInput, 'steps'> & { steps: StepToSave[] }): Promise<TestPlan> {
-  await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     await trx('bench_tests').where({ id: benchTestId }).forUpdate().first('id')
     const row = await trx('test_plans').where({ bench_test_id: benchTestId }).forUpdate().first('version', 'current_step_id') as { version: number, current_step_id: number | null } | undefined
     if ((row?.version ?? 0) !== input.version) {
@@ -124,8 +124,8 @@ export async function saveTestPlan(db: Db, userId: number, benchTestId: number, 
       await trx('test_plan_steps').whereIn('id', gone).delete()
     }
     await bumpLiveMark(trx, benchTestId)
+    return getTestPlan(trx, benchTestId)
   })
-  return getTestPlan(db, benchTestId)
 }
 
 /**
@@ -156,7 +156,7 @@ export async function copyTestPlan(db: Db, userId: number, benchTestId: number, 
 
 /** One move of the day; each changes one row, so two people working the day do not need versions. */
 export async function applyDayAction(db: Db, benchTestId: number, action: DayAction): Promise<TestPlan> {
-  await db.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     const step = await trx('test_plan_steps').where({ id: action.stepId, bench_test_id: benchTestId }).forUpdate().first('id', 'position', 'checklist', 'started_at') as { id: number, position: number, checklist: string, started_at: Date | null } | undefined
     if (!step) missing('No such step in this bench test\'s plan.')
     if (action.action === 'start') {
@@ -177,6 +177,6 @@ export async function applyDayAction(db: Db, benchTestId: number, action: DayAct
       await trx('test_plan_steps').where({ id: step.id }).update({ checklist: JSON.stringify(list) })
     }
     await bumpLiveMark(trx, benchTestId)
+    return getTestPlan(trx, benchTestId)
   })
-  return getTestPlan(db, benchTestId)
 }

@@ -13,7 +13,12 @@ export default defineEventHandler(async (event): Promise<CommitPullsResponse> =>
   const body = await receiveCheckBody(event)
   const checked = await checkImportBody(body, benchTest.default_standard as CorrectionStandard)
   const db = useDb()
-  const ids = await db.transaction(trx => insertCheckedPulls(trx, params.id, checked, { userId: user.id }))
+  // The answer is read inside the transaction: once the pulls are committed, an outage
+  // cannot turn their 201 into an error that invites the writer to import them twice.
+  const pulls = await db.transaction(async (trx) => {
+    const ids = await insertCheckedPulls(trx, params.id, checked, { userId: user.id })
+    return pullSummaries(trx, params.id, ids)
+  })
   setResponseStatus(event, 201)
-  return { pulls: await pullSummaries(db, params.id, ids) }
+  return { pulls }
 })
