@@ -12,6 +12,16 @@ describe('health', () => {
     expect(JSON.stringify(res.body)).not.toMatch(/password|S3RVER|mysql:/i)
   })
 
+  it('shares the storage and mail probes between calls, so a flood costs one probe', async () => {
+    const answers = await Promise.all(Array.from({ length: 10 }, () => new Client().get('/api/health')))
+    const again = await new Client().get('/api/health')
+    for (const res of [...answers, again]) expect(res.status).toBe(200)
+    const taken = new Set([...answers, again].map(res => `${res.body.checked.storage} ${res.body.checked.mail}`))
+    // One probe each, or two when the shared answer (5 s) ran out between the calls.
+    expect(taken.size).toBeLessThanOrEqual(2)
+    expect(Date.parse(again.body.checked.storage)).toBeLessThanOrEqual(Date.now())
+  })
+
   it('is 503 naming the database while it is stopped, and recovers without a restart', async () => {
     const env = localEnv('test')
     const reader = await signedIn('reader@example.com')
