@@ -1,4 +1,5 @@
 import type { ChildProcess } from 'node:child_process'
+import { readdirSync, readFileSync } from 'node:fs'
 import { afterAll, afterEach, describe, expect, it, vi } from 'vitest'
 import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
@@ -86,5 +87,40 @@ describe('a crash mid-job', () => {
     })
     expect(job).toMatchObject({ status: 'done', attempts: 2 })
     expect(job.last_error).toMatch(/stopped unexpectedly \(exit code 70\)/)
+  })
+})
+
+describe('the sizing child\'s priority', () => {
+  // proc(5): field 5 is the process group, field 19 the nice value (counted from 1, after the name in brackets).
+  function groupMembers(pgrp: number): { pid: number, nice: number, cmdline: string }[] {
+    const members = []
+    for (const entry of readdirSync('/proc')) {
+      if (!/^\d+$/.test(entry)) continue
+      try {
+        const stat = readFileSync(`/proc/${entry}/stat`, 'utf8')
+        const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
+        if (Number(fields[2]) !== pgrp) continue
+        members.push({ pid: Number(entry), nice: Number(fields[16]), cmdline: readFileSync(`/proc/${entry}/cmdline`, 'utf8').replaceAll('\0', ' ') })
+      }
+      catch { /* the process ended while we looked */ }
+    }
+    return members
+  }
+
+  it('sizes photos in a child at nice 19 (PHOTO_WORKER_NICE unset) while the server keeps its own priority', async () => {
+    const queue = `nice-${Date.now().toString(36)}`
+    const desk = await signedIn('writer@example.com')
+    const bench = await createBenchTest(await userId(desk), 'Sizing priority')
+    const own = await server(spareAppPort(14), { PHOTO_QUEUE: queue, PHOTO_WORKER_IDLE_SECONDS: '120' })
+    const res = await uploadPhoto(own.client, bench, await makeJpeg(900, 600), 'priority.jpg')
+    expect(res.status).toBe(201)
+    await waitForPhoto(desk, bench, res.body.photo.id, p => p.status === 'ready')
+
+    const members = groupMembers(own.child.pid!)
+    const sizing = members.filter(m => m.cmdline.includes('photo-worker'))
+    const serving = members.find(m => m.pid === own.child.pid)
+    expect(sizing.length, members.map(m => m.cmdline).join('\n')).toBeGreaterThan(0)
+    for (const child of sizing) expect(child.nice).toBe(19)
+    expect(serving!.nice).toBeLessThan(19)
   })
 })
