@@ -1,5 +1,6 @@
 import { monitorEventLoopDelay, type ELDHistogram } from 'node:perf_hooks'
 import type { ListingCheck } from './storage-privacy'
+import { keptRenderCounts, type KeptRenderCounts } from '~~/shared/utils/kept-render-counts'
 import { photoJobsActive } from '~~/server/services/photos/jobs'
 import { pullCheckStats } from '~~/server/services/workspace/pull-pool'
 
@@ -29,6 +30,8 @@ export interface RuntimeStats {
   pullChecks: ReturnType<typeof pullCheckStats>
   /** What the start-up check found: can the bucket be listed without credentials? */
   storageListing: ListingCheck
+  /** Server renders of kept subtrees (the reader's article) made and reused, since the process started. */
+  keptRenders: KeptRenderCounts
 }
 
 export function runtimeStats(): RuntimeStats {
@@ -45,5 +48,6 @@ export function runtimeStats(): RuntimeStats {
     photoJobs: { active: photoJobsActive() },
     pullChecks: pullCheckStats(),
     storageListing: bucketListingCheck(),
+    keptRenders: keptRenderCounts,
   }
 }

@@ -8,8 +8,9 @@ import { mkdirSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { seriousViolations } from '../support/axe'
-import { openBrowser, type BrowserSession } from '../support/browser'
-import { signedIn } from '../support/http'
+import { gotoReady, openBrowser, signInThroughPage, type BrowserSession } from '../support/browser'
+import { signedIn, uniqueEmail } from '../support/http'
+import { expectOk } from '../support/workspace'
 import { createStory, publishStory, storyBench, type StoryBench } from '../support/stories'
 
 const SHOTS = join(process.cwd(), '.data', 'test', 'screenshots')
@@ -144,6 +145,45 @@ describe('a reader on a story', () => {
       if (['units-switch', 'standard-switch', 'download-data'].includes(id)) reached.add(id)
     }
     expect([...reached].sort()).toEqual(['download-data', 'standard-switch', 'units-switch'])
+  })
+})
+
+// The signed-in reader's page is rendered per request, its article reused from the
+// edition's first render (StoryArticleKept): the page must hydrate as a full render
+// does (same useId numbers, same payload), and stay interactive.
+describe('a signed-in reader on a story whose article is kept', () => {
+  let browser: BrowserSession
+  beforeAll(async () => { browser = await openBrowser() })
+  afterAll(async () => { await browser?.close() })
+
+  it('hydrates without a mismatch and the graphs and the units switch work', async () => {
+    const { page } = browser
+    // A reader of its own: the units chosen below go to the account's preferences.
+    const email = uniqueEmail('kept-reader')
+    const password = 'a-long-test-password'
+    expectOk(await (await signedIn('admin@example.com')).post('/api/users', { email, displayName: 'Kept reader', role: 'reader', password }), 201)
+    await signInThroughPage(page, email, password)
+    const warnings: string[] = []
+    page.on('console', (m) => { if (/hydration|mismatch/i.test(m.text())) warnings.push(`${m.type()}: ${m.text().slice(0, 300)}`) })
+    // The first load renders the article (or reuses an earlier render); the second surely reuses it.
+    await gotoReady(page, `/stories/${slug}`)
+    await gotoReady(page, `/stories/${slug}`)
+    await page.getByTestId('user-name').waitFor()
+    const graph = page.getByTestId('figure-graph').first()
+    await graph.scrollIntoViewIfNeeded()
+    await page.locator('[data-testid="figure-graph"][data-live="true"]').first().waitFor({ timeout: 20_000 })
+    // The readout's slider (its id from useId, after the article's) answers the keyboard.
+    const at = graph.getByTestId('figure-readout-at')
+    const rpmOf = async () => Number((await at.textContent())!.replace(/[^\d]/g, ''))
+    const middle = await rpmOf()
+    await graph.getByTestId('figure-readout-rpm').focus()
+    await page.keyboard.press('End')
+    await expect.poll(rpmOf).toBeGreaterThan(middle)
+    // The page-level units switch, after the article, redraws the article's graph.
+    const data = page.getByTestId('story-data')
+    await data.getByTestId('units-switch').selectOption('kw-nm')
+    await expect.poll(() => graph.getByTestId('figure-readout-row').first().textContent(), NETWORK).toMatch(/kW/)
+    expect(warnings).toEqual([])
   })
 })
 

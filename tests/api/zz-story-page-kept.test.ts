@@ -1,0 +1,84 @@
+// The reader's article is rendered once per edition and its HTML reused
+// (app/components/story/StoryArticleKept.ts): a page built from the kept article must be
+// byte for byte the page a full render makes, HTML and payload (the parsed body, the
+// useId numbering in and after the article, the preload links of the figures' modules).
+// Two app servers on the test database, both started after the story is published so
+// both read its edition from the database alike: one keeps articles, one renders every
+// page in full (PULLSHEET_KEPT_ARTICLES=off). Nothing in these pages is per request (no
+// nonce, no CSRF token), so the whole answer is compared.
+import type { ChildProcess } from 'node:child_process'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { startApp } from '../../scripts/lib/app'
+import { localEnv } from '../../scripts/lib/env'
+import { killGroup } from '../../scripts/lib/proc'
+import { Client, signedIn, spareAppPort, testServerExtra } from '../support/http'
+import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
+import { DEMO, expectOk } from '../support/workspace'
+
+const KEEPING = `http://127.0.0.1:${spareAppPort(9)}`
+const FRESH = `http://127.0.0.1:${spareAppPort(10)}`
+const servers: ChildProcess[] = []
+let slug = ''
+let headline = ''
+
+beforeAll(async () => {
+  const editor = await signedIn(DEMO.editor)
+  const bench = await storyBench(editor)
+  // Graphs (useId in their controls and summaries), a results table, an inline value and
+  // the cautions the page adds: every kind of thing the article's render leaves behind.
+  const body = [storyBody(bench), '', `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`, '::', '', '::results-table', '::'].join('\n')
+  const story = await createStory(editor, bench.benchTestId, { body })
+  await publishStory(editor, story.id)
+  slug = story.slug
+  headline = story.headline
+  servers.push(...await Promise.all([
+    startApp(localEnv('test'), testServerExtra(), spareAppPort(9)),
+    startApp(localEnv('test'), { ...testServerExtra(), PULLSHEET_KEPT_ARTICLES: 'off' }, spareAppPort(10)),
+  ]))
+}, 120_000)
+
+afterAll(async () => {
+  for (const server of servers) await killGroup(server)
+})
+
+async function pageText(base: string, cookie = ''): Promise<string> {
+  const res = await fetch(`${base}/stories/${slug}`, { headers: { accept: 'text/html', ...(cookie ? { cookie } : {}) } })
+  expect(res.status).toBe(200)
+  return res.text()
+}
+
+const articleCounts = async (admin: Client) => {
+  admin = Object.assign(new Client(KEEPING), { cookie: admin.cookie })
+  const counts = expectOk(await admin.get('/api/admin/runtime')).keptRenders.StoryArticleKept as { rendered: number, reused: number } | undefined
+  return counts ?? { rendered: 0, reused: 0 }
+}
+
+describe('the kept article of a story page', () => {
+  it('gives a signed-in reader, from the second render on, the bytes a full render gives', async () => {
+    const admin = await signedIn(DEMO.admin)
+    const reader = await signedIn(DEMO.reader)
+    const before = await articleCounts(admin)
+    const first = await pageText(KEEPING, reader.cookie)
+    const second = await pageText(KEEPING, reader.cookie)
+    const third = await pageText(KEEPING, reader.cookie)
+    const after = await articleCounts(admin)
+    const full = await pageText(FRESH, reader.cookie)
+
+    expect(after.rendered - before.rendered, 'the first render makes the article').toBe(1)
+    expect(after.reused - before.reused, 'the second and third reuse it').toBe(2)
+    expect(full).toContain(headline)
+    expect(full.split('data-testid="story-article"').length - 1, 'one article on the page').toBe(1)
+    expect(full).toContain('data-figure-svg') // the graphs are drawn
+    expect(full).toContain('story-body:reader-story-') // the parsed body in the payload
+    expect(second).toBe(full)
+    expect(third).toBe(full)
+    expect(first).toBe(full)
+  })
+
+  it('gives anonymous readers the bytes a full render gives', async () => {
+    const kept = await pageText(KEEPING)
+    const full = await pageText(FRESH)
+    expect(kept.split('data-testid="story-article"').length - 1).toBe(1)
+    expect(kept).toBe(full)
+  })
+})
