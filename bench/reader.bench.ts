@@ -12,6 +12,8 @@
 //      1a. with worker_processes auto (one per core, 2 here), as Debian ships it
 //      1b. with one worker: the same number of processes as one Node process
 //   2. cached story page from Node alone                >= 0.85 of 1a (each app server)
+//      2b. a bare Node server (bench/bare-node-server.mjs) sending the app's head and the
+//          same bytes, with as many processes as each app server: Node's own ceiling here
 //   3. the same page through the shipped nginx config   >= 0.95 of 1a
 //   4. uncached story page (a signed-in reader: never cached), p95 at 10 concurrent < 60 ms
 //      (each app server, taking turns)
@@ -33,6 +35,7 @@ const CONNECTIONS = 50
 const STATIC_PORT = 8461
 const CACHE_PORT = 8462
 const STATIC_ONE_WORKER_PORT = 8463
+const BARE_NODE_PORT = 8464 // and the next one: one bare server per app server
 const dir = join(ROOT, '.data', 'bench', 'nginx')
 
 /** What both nginx instances share: the process settings, the static yardstick, the temp paths. */
@@ -149,6 +152,30 @@ if (process.argv[2] === 'uncached') {
   process.exit(0)
 }
 let nginx: ReturnType<typeof import('node:child_process').spawn> | undefined
+let bare: ReturnType<typeof import('node:child_process').spawn>[] = []
+
+/** Row 2b's servers: the app's cached answer (head and Brotli bytes) served by bare Node, one server per app server. */
+async function startBareNode(url: string, processes: number[]): Promise<ReturnType<typeof import('node:child_process').spawn>[]> {
+  const { request } = await import('node:http')
+  const { spawn } = await import('node:child_process')
+  const answer = await new Promise<{ headers: Record<string, unknown>, body: Buffer }>((resolve, reject) => {
+    request(url, { agent: false, headers: BROTLI }, (res) => {
+      const chunks: Buffer[] = []
+      res.on('data', (chunk: Buffer) => chunks.push(chunk))
+      res.on('end', () => resolve({ headers: res.headers, body: Buffer.concat(chunks) }))
+    }).on('error', reject).end()
+  })
+  const skip = new Set(['date', 'connection', 'keep-alive', 'transfer-encoding', 'content-length'])
+  const head = Object.fromEntries(Object.entries(answer.headers).filter(([name]) => !skip.has(name)))
+  writeFileSync(join(dir, 'bare-head.json'), JSON.stringify(head))
+  writeFileSync(join(dir, 'bare-body.br'), answer.body)
+  const children = processes.map((n, i) => spawn(process.execPath, [join(ROOT, 'bench', 'bare-node-server.mjs')], {
+    stdio: 'inherit',
+    env: { ...process.env, BARE_PROCESSES: String(n), BARE_PORT: String(BARE_NODE_PORT + i), BARE_HEAD: join(dir, 'bare-head.json'), BARE_BODY: join(dir, 'bare-body.br') },
+  }))
+  await new Promise(r => setTimeout(r, 1000))
+  return children
+}
 let nginxOne: ReturnType<typeof import('node:child_process').spawn> | undefined
 try {
   const storyUrl = `${fixture.base}/stories/${fixture.slug}`
@@ -189,18 +216,25 @@ try {
   }
   console.log(`nginx cache status on the second request: ${edge.headers.get('x-edge-cache')}; node page cache: ${(await fetch(storyUrl, { headers: BROTLI })).headers.get('x-page-cache')}`)
   const wire = { br: await wireBytes(storyUrl, 'br'), gzip: await wireBytes(storyUrl, 'gzip'), none: await wireBytes(storyUrl, 'identity') }
+  bare = await startBareNode(storyUrl, servers.map(s => s.processes))
 
   console.log(`${os.cpus().length} cores, ${os.cpus()[0]?.model}; load average ${os.loadavg().map(l => l.toFixed(1)).join(' ')}; wrk ${CONNECTIONS} connections, 2 threads, 2 x ${SECONDS / 2} s each in turns, Brotli bytes (${(brotli.byteLength / 1024).toFixed(1)} KB) on every row`)
   // Every row of the cached page takes its turn in each of two rounds.
   const staticUrl = `http://127.0.0.1:${STATIC_PORT}/story`
   const staticOneUrl = `http://127.0.0.1:${STATIC_ONE_WORKER_PORT}/story`
-  const [stat, statOne, cached, ...nodes] = await alternating([staticUrl, staticOneUrl, edgeUrl, ...nodeUrls], CONNECTIONS, BROTLI)
+  const bareUrls = servers.map((_, i) => `http://127.0.0.1:${BARE_NODE_PORT + i}/stories/${fixture.slug}`)
+  const [stat, statOne, cached, ...rest] = await alternating([staticUrl, staticOneUrl, edgeUrl, ...nodeUrls, ...bareUrls], CONNECTIONS, BROTLI)
+  const nodes = rest.slice(0, servers.length)
+  const bares = rest.slice(servers.length)
   const fmt = (r: { perSecond: number, p50: number, p99: number, bytesPerRequest: number }) => `(p50 ${r.p50.toFixed(2)} ms, p99 ${r.p99.toFixed(2)} ms, ${(r.bytesPerRequest / 1024).toFixed(1)} KB/answer)`
   const rate = (r: { perSecond: number }) => `${r.perSecond.toFixed(0).padStart(6)} req/s`
   console.log(`1a. nginx static, ${os.cpus().length} workers:  ${rate(stat!)} ${fmt(stat!)}`)
   console.log(`1b. nginx static, 1 worker:   ${rate(statOne!)} ${fmt(statOne!)}`)
   for (const [i, node] of nodes.entries()) {
     console.log(`2.  Node page cache, ${servers[i]!.processes} process(es): ${rate(node)} = ${(node.perSecond / stat!.perSecond).toFixed(2)} of 1a (target >= 0.85), ${(node.perSecond / statOne!.perSecond).toFixed(2)} of 1b ${fmt(node)}`)
+  }
+  for (const [i, b] of bares.entries()) {
+    console.log(`2b. bare Node, same head and bytes, ${servers[i]!.processes} process(es): ${rate(b)} = ${(b.perSecond / stat!.perSecond).toFixed(2)} of 1a; the app's hit is ${(nodes[i]!.perSecond / b.perSecond).toFixed(2)} of it ${fmt(b)}`)
   }
   console.log(`3.  shipped nginx before Node (${fixture.processes} process(es)): ${rate(cached!)} = ${(cached!.perSecond / stat!.perSecond).toFixed(2)} of 1a (target >= 0.95) ${fmt(cached!)}`)
   await uncachedRows(servers, fixture.readerCookie)
@@ -212,5 +246,6 @@ try {
 finally {
   nginx?.kill('SIGQUIT')
   nginxOne?.kill('SIGQUIT')
+  for (const child of bare) child.kill('SIGTERM')
   await fixture.stop()
 }
