@@ -9,6 +9,7 @@ import { AriaComponent, GridComponent, LegendComponent, MarkLineComponent } from
 import { SVGRenderer } from 'echarts/renderers'
 import type { PullChartOption } from '../utils/chart-options'
 import { memoOn } from '../utils/object-memo'
+import { textHashName } from '../utils/string-hash'
 
 echarts.use([LineChart, GridComponent, LegendComponent, MarkLineComponent, AriaComponent, SVGRenderer])
 
@@ -33,7 +34,7 @@ function drawnByValue(option: PullChartOption, size: { width: number, height: nu
     drawn.set(key, hit) // most recently used last
     return hit
   }
-  const svg = drawGraphSvg(option, size)
+  const svg = drawGraphSvg(option, size, key)
   drawn.set(key, svg)
   if (drawn.size > MAX_DRAWN) drawn.delete(drawn.keys().next().value!)
   return svg
@@ -42,15 +43,20 @@ function drawnByValue(option: PullChartOption, size: { width: number, height: nu
 const MAX_DRAWN = 200
 const drawn = new Map<string, string>()
 
-function drawGraphSvg(option: PullChartOption, size: { width: number, height: number }): string {
+function drawGraphSvg(option: PullChartOption, size: { width: number, height: number }, key: string): string {
   const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width: size.width, height: size.height })
   try {
     // A static picture: no pointer, no tooltip, nothing that waits for a mouse.
     chart.setOption({ ...option, tooltip: undefined, axisPointer: undefined, aria: { enabled: false } } as PullChartOption)
-    return chart.renderToSVGString()
+    const svg = chart.renderToSVGString()
       .replace(/<style[\s\S]*?<\/style>/g, '')
       .replace(/\sclass="zr\d+-cls-\d+"/g, '')
       .replace(/^<svg /, '<svg aria-hidden="true" focusable="false" preserveAspectRatio="xMidYMid meet" ')
+    // The renderer names its clip paths after a counter of the process (zr0-, zr1-...), so
+    // the same graph came out with other ids from another process, or after another
+    // graph was drawn first. Named after what is drawn, every server sends the same bytes.
+    const counterPrefix = /\bzr\d+-/.exec(svg)?.[0]
+    return counterPrefix ? svg.replaceAll(counterPrefix, `g${textHashName(key)}-`) : svg
   }
   finally {
     chart.dispose()
