@@ -75,6 +75,24 @@ describe('two app servers', () => {
       await expect.poll(async () => (await pageHtml(base, path)).includes('Second deck after the edit.'), { timeout: 15_000 }).toBe(true)
     }
   }, 90_000)
+
+  it('a published story is the same bytes and ETag from both servers, although one had built its figures from the live workspace', async () => {
+    const editor = await signedIn(DEMO.editor)
+    const bench = await storyBench(editor)
+    const story = await createStory(editor, bench.benchTestId, { body: storyBody(bench) })
+    // The desk's figures on this server are built from the live data, with the same content hash as the edition.
+    expectOk(await editor.get(`/api/stories/${story.id}/figures`))
+    await publishStory(editor, story.id)
+    for (const path of [`/api/magazine/stories/${story.slug}`, `/api/magazine/stories/${story.slug}/analysis`, `/stories/${story.slug}`]) {
+      const [first, other] = await Promise.all([new Client().base, SECOND].map(base => fetch(base + path)))
+      expect(first!.status, path).toBe(200)
+      const [a, b] = await Promise.all([first!.text(), other!.text()])
+      // Where they part, not two whole answers of 100 KB.
+      const at = [...a].findIndex((ch, i) => ch !== b[i])
+      expect(at === -1 && a.length === b.length ? 'same' : `${a.length} vs ${b.length} bytes, first difference at ${at}: ${a.slice(at - 80, at + 80)} | ${b.slice(at - 80, at + 80)}`, path).toBe('same')
+      expect(first!.headers.get('etag'), path).toBe(other!.headers.get('etag'))
+    }
+  }, 90_000)
 })
 
 describe('an app server killed in the middle of an import', () => {

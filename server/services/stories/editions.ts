@@ -62,7 +62,7 @@ export async function liveStoryData(db: Db, row: TextRow, uses?: SetupsUsed): Pr
     chosen = live.filter(s => used.ids.includes(s.id) || s === baseline)
   }
   const { data: bench } = await loadBenchData(db, benchTest, chosen.map(s => s.id))
-  return {
+  return asFrozen({
     format: STORY_DATA_FORMAT,
     benchTest: { id: benchTest.id, title: benchTest.title, shop: benchTest.shop, dyno: benchTest.dyno, testedFrom: benchTest.testedFrom, testedTo: benchTest.testedTo },
     bench,
@@ -72,7 +72,18 @@ export async function liveStoryData(db: Db, row: TextRow, uses?: SetupsUsed): Pr
     ...(dayReport !== undefined ? { dayReport } : {}),
     photoIds,
     rounding: STORY_ROUNDING,
-  }
+  })
+}
+
+/**
+ * The live data in the very form an edition keeps it (canonical JSON read back: keys in
+ * order, dates as strings). Figures and views are kept by content hash, which the live
+ * data shares with its edition: built from the live data first (the desk's preview), the
+ * published answers of this server listed keys in another order than those of a server
+ * that read the edition, so the same edition was other bytes and another ETag there.
+ */
+function asFrozen(data: StoryData): StoryData {
+  return JSON.parse(canonicalJson(data)) as StoryData
 }
 
 export function storyDataHash(data: StoryData): string {
