@@ -5,17 +5,12 @@ import { brotliDecompressSync, gunzipSync } from 'node:zlib'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { Client, signedIn } from '../support/http'
 import { DEMO, expectOk } from '../support/workspace'
-import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
+import { publishedFullStory } from '../support/stories'
 
 let slug = ''
 
 beforeAll(async () => {
-  const editor = await signedIn(DEMO.editor)
-  const bench = await storyBench(editor)
-  const body = [storyBody(bench), '', `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`, '::', '', '::results-table', '::'].join('\n')
-  const story = await createStory(editor, bench.benchTestId, { body })
-  await publishStory(editor, story.id)
-  slug = story.slug
+  slug = (await publishedFullStory(await signedIn(DEMO.editor))).slug
 }, 120_000)
 
 /** The page's bytes as they cross the wire (node:http: fetch would decompress them). */

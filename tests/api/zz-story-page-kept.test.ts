@@ -16,7 +16,7 @@ import { startApp } from '../../scripts/lib/app'
 import { localEnv } from '../../scripts/lib/env'
 import { killGroup } from '../../scripts/lib/proc'
 import { Client, signedIn, spareAppPort, testServerExtra } from '../support/http'
-import { createStory, publishStory, storyBench, storyBody } from '../support/stories'
+import { publishedFullStory } from '../support/stories'
 import { DEMO, expectOk } from '../support/workspace'
 
 const KEEPING = `http://127.0.0.1:${spareAppPort(9)}`
@@ -26,13 +26,8 @@ let slug = ''
 let headline = ''
 
 beforeAll(async () => {
-  const editor = await signedIn(DEMO.editor)
-  const bench = await storyBench(editor)
-  // Graphs (useId in their controls and summaries), a results table, an inline value and
-  // the cautions the page adds: every kind of thing the article's render leaves behind.
-  const body = [storyBody(bench), '', `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`, '::', '', '::results-table', '::'].join('\n')
-  const story = await createStory(editor, bench.benchTestId, { body })
-  await publishStory(editor, story.id)
+  // Every kind of thing the article's render leaves behind (ids, the parsed body, modules).
+  const story = await publishedFullStory(await signedIn(DEMO.editor))
   slug = story.slug
   headline = story.headline
   servers.push(...await Promise.all([

@@ -36,6 +36,18 @@ export function storyBody(bench: StoryBench, extra = ''): string {
   ].join('\n')
 }
 
+/**
+ * A published story whose page carries every kind of thing a story page draws: two graphs
+ * (their controls and summaries use ids), a results table, an inline value and the cautions.
+ */
+export async function publishedFullStory(editor: Client) {
+  const bench = await storyBench(editor)
+  const body = [storyBody(bench), '', `::gain-graph{baseline=${bench.baselineId} setups="${bench.camId}"}`, '::', '', '::results-table', '::'].join('\n')
+  const story = await createStory(editor, bench.benchTestId, { body })
+  await publishStory(editor, story.id)
+  return story
+}
+
 export async function createStory(client: Client, benchTestId: number, fields: Record<string, unknown> = {}) {
   return expectOk(await client.post('/api/stories', { benchTestId, headline: `Cam swap ${Math.random().toString(36).slice(2, 8)}`, ...fields }), 201).story
 }
