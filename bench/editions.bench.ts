@@ -10,13 +10,18 @@
 // Each row also prints the server's CPU milliseconds per page (user + system time of the
 // server's processes over the row, from /proc, divided by the pages answered): unlike the
 // latencies, that figure holds while other work shares the cores.
+// Last, the framework's own yardstick in the same run: a Nuxt app with nothing of ours
+// (bench/minimal-nuxt: one page of text about the size of /about, the project's Nuxt and
+// Vue), built into .data/bench and loaded the same way on one process. What a page can
+// cost here at the least, and what that gives at ten concurrent readers.
 import { readdirSync, readFileSync, rmSync } from 'node:fs'
 import os from 'node:os'
+import { join } from 'node:path'
 import { startApp } from '../scripts/lib/app'
 import { buildIfNeeded } from '../scripts/lib/build'
 import { migrate, scriptDb, seed } from '../scripts/lib/database'
-import { localEnv, serverEnv } from '../scripts/lib/env'
-import { killGroup } from '../scripts/lib/proc'
+import { localEnv, ROOT, serverEnv } from '../scripts/lib/env'
+import { killGroup, portOpen, runInherit, startDetached, waitFor } from '../scripts/lib/proc'
 import { startServices } from '../scripts/lib/services'
 import { buildDemoMagazine } from '../scripts/demo/magazine'
 import { DEMO_PASSWORD } from '../shared/utils/demo-accounts'
@@ -55,6 +60,29 @@ function groupCpuMs(pgid: number): number {
   return ticks * tick
 }
 
+/**
+ * Loads each URL with wrk at 10 connections (first the same load, uncounted, while the
+ * JIT warms up), the servers taking turns, two rounds of half the time each; one line per
+ * server: latencies per round, the rate, and the server's CPU time per page.
+ */
+async function measure(urls: string[], pids: number[], headers: Record<string, string>): Promise<string[]> {
+  for (const url of urls) await wrk(url, { connections: 10, seconds: WARMUP_SECONDS, headers })
+  const halves = urls.map(() => [] as WrkResult[])
+  const cpuMs = urls.map(() => 0)
+  for (let round = 0; round < 2; round++) {
+    for (const [i, url] of urls.entries()) {
+      const before = groupCpuMs(pids[i]!)
+      halves[i]!.push(clean(url, await wrk(url, { connections: 10, seconds: SECONDS / 2, headers })))
+      cpuMs[i]! += groupCpuMs(pids[i]!) - before
+    }
+  }
+  return halves.map(([a, b], i) => {
+    const perSecond = (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond)
+    const cpuPerPage = cpuMs[i]! / (a!.requests + b!.requests)
+    return `p50 ${a!.p50.toFixed(1)}/${b!.p50.toFixed(1)} ms, p95 ${a!.p95.toFixed(1)}/${b!.p95.toFixed(1)} ms, p99 ${a!.p99.toFixed(1)}/${b!.p99.toFixed(1)} ms (rounds 1/2; n = ${a!.requests + b!.requests}, ${perSecond.toFixed(0)} req/s, ${cpuPerPage.toFixed(1)} CPU ms per page`
+  })
+}
+
 const env = localEnv('test')
 rmSync(env.dataDir, { recursive: true, force: true })
 const settings = serverEnv(env)
@@ -89,25 +117,24 @@ try {
       if (probe.status !== 200 || probe.headers.get('x-page-cache') || !/private/.test(probe.headers.get('cache-control') ?? '')) {
         throw new Error(`the signed-in page must be private and uncached: ${probe.status} ${probe.headers.get('x-page-cache')} ${probe.headers.get('cache-control')}`)
       }
-      // The server's first seconds are its JIT warming up: the same load first, not counted.
-      await wrk(url, { connections: 10, seconds: WARMUP_SECONDS, headers })
     }
-    // The servers take turns, two rounds of half the time each.
-    const halves = urls.map(() => [] as WrkResult[])
-    const cpuMs = urls.map(() => 0)
-    for (let round = 0; round < 2; round++) {
-      for (const [i, url] of urls.entries()) {
-        const before = groupCpuMs(apps[i]!.pid!)
-        halves[i]!.push(clean(story.name, await wrk(url, { connections: 10, seconds: SECONDS / 2, headers })))
-        cpuMs[i]! += groupCpuMs(apps[i]!.pid!) - before
-      }
-    }
-    for (const [i, [a, b]] of halves.entries()) {
-      const perSecond = (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond)
-      const cpuPerPage = cpuMs[i]! / (a!.requests + b!.requests)
-      console.log(`${story.name}, uncached, signed-in reader, 10 concurrent, ${servers[i]!.processes} process(es): p50 ${a!.p50.toFixed(1)}/${b!.p50.toFixed(1)} ms, p95 ${a!.p95.toFixed(1)}/${b!.p95.toFixed(1)} ms, p99 ${a!.p99.toFixed(1)}/${b!.p99.toFixed(1)} ms (rounds 1/2; n = ${a!.requests + b!.requests}, ${perSecond.toFixed(0)} req/s, ${cpuPerPage.toFixed(1)} CPU ms per page${story === FLOOR ? '' : '; target p95 < 60 ms'}; load average ${os.loadavg()[0]!.toFixed(1)})`)
+    const rows = await measure(urls, apps.map(app => app.pid!), headers)
+    for (const [i, row] of rows.entries()) {
+      console.log(`${story.name}, uncached, signed-in reader, 10 concurrent, ${servers[i]!.processes} process(es): ${row}${story === FLOOR ? '' : '; target p95 < 60 ms'}; load average ${os.loadavg()[0]!.toFixed(1)})`)
     }
   }
+
+  // The yardstick: Nuxt alone, built from bench/minimal-nuxt into .data/bench, one process.
+  const code = await runInherit(join(ROOT, 'node_modules', '.bin', 'nuxi'), ['build', 'bench/minimal-nuxt'], { cwd: ROOT, env: { ...process.env, NODE_ENV: 'production' }, stdio: 'ignore' })
+  if (code !== 0) throw new Error(`nuxi build bench/minimal-nuxt failed with exit code ${code}`)
+  const port = env.app.port + servers.length
+  const bare = startDetached(process.execPath, [join(ROOT, '.data', 'bench', 'minimal-nuxt', '.output', 'server', 'index.mjs')], {
+    cwd: ROOT, env: { ...process.env, NODE_ENV: 'production', PORT: String(port), NITRO_PORT: String(port), HOST: env.app.host, NITRO_HOST: env.app.host },
+  })
+  apps.push(bare)
+  await waitFor(`the minimal Nuxt app on port ${port}`, () => portOpen(port, env.app.host), 60_000)
+  const [row] = await measure([`http://${env.app.host}:${port}/`], [bare.pid!], BROTLI)
+  console.log(`yardstick: Nuxt alone (bench/minimal-nuxt, a page of text, no session), 10 concurrent, 1 process: ${row}; load average ${os.loadavg()[0]!.toFixed(1)})`)
   console.log(`load average ${os.loadavg().map(l => l.toFixed(1)).join(' ')}`)
 }
 finally {
