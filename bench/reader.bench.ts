@@ -15,13 +15,15 @@
 //      2b. a bare Node server (bench/bare-node-server.mjs) sending the app's head and the
 //          same bytes, with as many processes as each app server: Node's own ceiling here
 //   3. the same page through the shipped nginx config   >= 0.95 of 1a
+//      (rows 1a, 1b and 3 also print nginx's CPU per answer: its workers' user + system
+//      time from /proc over the row's turns, which the machine's other load moves less)
 //   4. uncached story page (a signed-in reader: never cached), p95 at 10 concurrent < 60 ms
 //      (each app server, taking turns)
 //   5. first-load JS of the story page                  < 120 KB gzip
 //   6. the story page on the wire                       <= 40 KB
 // `reader.bench.ts uncached` runs row 4 alone (no nginx), e.g. under a CPU profile.
 import { spawnSync } from 'node:child_process'
-import { chmodSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { chmodSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs'
 import os from 'node:os'
 import { join } from 'node:path'
 import { ROOT } from '../scripts/lib/env'
@@ -38,11 +40,17 @@ const STATIC_ONE_WORKER_PORT = 8463
 const BARE_NODE_PORT = 8464 // and the next one: one bare server per app server
 const dir = join(ROOT, '.data', 'bench', 'nginx')
 
-/** What both nginx instances share: the process settings, the static yardstick, the temp paths. */
+/**
+ * What both nginx instances share: the process settings, the static yardstick, the temp
+ * paths. `pcre_jit on` is what docs/deploy/nginx.md has a deployment add to nginx.conf
+ * (main context, where a conf.d file cannot set it); the yardstick runs no regular
+ * expression, so it changes nothing there.
+ */
 function nginxHead(name: string, workers: 'auto' | 1, staticPort: number): string {
   return `
 daemon off;
 worker_processes ${workers};
+pcre_jit on;
 pid ${dir}/${name}.pid;
 error_log ${dir}/${name}-error.log warn;
 events { worker_connections 4096; }
@@ -93,16 +101,56 @@ ${story}
 
 const BROTLI = { 'accept-encoding': 'gzip, deflate, br' }
 
+/** A row's result, with the CPU its server spent per answer when the row has a meter. */
+type Row = WrkResult & { cpuMicros?: number }
+
 /**
  * The URLs in turn, twice, half the time each, so a change in the machine's other load
  * during the run moves them all alike; requests/s over both halves, latency of the second.
+ * `cpu[i]`, when given, reads the CPU seconds of URL i's server so far: the row then
+ * also reports microseconds of CPU per answer, which the machine's other load moves far
+ * less than requests/s.
  */
-async function alternating(urls: string[], connections: number, headers: Record<string, string>): Promise<WrkResult[]> {
+async function alternating(urls: string[], connections: number, headers: Record<string, string>, cpu: ((() => number) | undefined)[] = []): Promise<Row[]> {
   const halves: WrkResult[][] = urls.map(() => [])
+  const cpuSeconds = urls.map(() => 0)
   for (let round = 0; round < 2; round++) {
-    for (const [i, url] of urls.entries()) halves[i]!.push(clean(url, await wrk(url, { connections, seconds: SECONDS / 2, headers })))
+    for (const [i, url] of urls.entries()) {
+      const before = cpu[i]?.() ?? 0
+      halves[i]!.push(clean(url, await wrk(url, { connections, seconds: SECONDS / 2, headers })))
+      cpuSeconds[i]! += (cpu[i]?.() ?? 0) - before
+    }
   }
-  return halves.map(([a, b]) => ({ ...b!, requests: a!.requests + b!.requests, perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond) }))
+  return halves.map(([a, b], i) => ({
+    ...b!,
+    requests: a!.requests + b!.requests,
+    perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond),
+    cpuMicros: cpu[i] ? cpuSeconds[i]! * 1e6 / (a!.requests + b!.requests) : undefined,
+  }))
+}
+
+const CLOCK_TICKS = Number(spawnSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).stdout) || 100
+
+/**
+ * CPU seconds (user + system) spent so far by a process's children: an nginx master's
+ * workers (and its cache manager, idle here), read from /proc.
+ */
+function childrenCpuSeconds(parent: number): number {
+  let ticks = 0
+  for (const name of readdirSync('/proc')) {
+    if (!/^\d+$/.test(name)) continue
+    let stat: string
+    try {
+      stat = readFileSync(`/proc/${name}/stat`, 'utf8')
+    }
+    catch {
+      continue // gone meanwhile
+    }
+    // After the command's ")": state, ppid, ... utime (12th), stime (13th).
+    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
+    if (Number(fields[1]) === parent) ticks += Number(fields[11]) + Number(fields[12])
+  }
+  return ticks / CLOCK_TICKS
 }
 
 async function checkUncached(url: string, cookie: string) {
@@ -223,10 +271,13 @@ try {
   const staticUrl = `http://127.0.0.1:${STATIC_PORT}/story`
   const staticOneUrl = `http://127.0.0.1:${STATIC_ONE_WORKER_PORT}/story`
   const bareUrls = servers.map((_, i) => `http://127.0.0.1:${BARE_NODE_PORT + i}/stories/${fixture.slug}`)
-  const [stat, statOne, cached, ...rest] = await alternating([staticUrl, staticOneUrl, edgeUrl, ...nodeUrls, ...bareUrls], CONNECTIONS, BROTLI)
+  // nginx's rows also count its workers' CPU per answer (rows 1a and 3 share the workers,
+  // but take their turns apart).
+  const nginxCpu = (master: number | undefined) => () => childrenCpuSeconds(master!)
+  const [stat, statOne, cached, ...rest] = await alternating([staticUrl, staticOneUrl, edgeUrl, ...nodeUrls, ...bareUrls], CONNECTIONS, BROTLI, [nginxCpu(nginx.pid), nginxCpu(nginxOne.pid), nginxCpu(nginx.pid)])
   const nodes = rest.slice(0, servers.length)
   const bares = rest.slice(servers.length)
-  const fmt = (r: { perSecond: number, p50: number, p99: number, bytesPerRequest: number }) => `(p50 ${r.p50.toFixed(2)} ms, p99 ${r.p99.toFixed(2)} ms, ${(r.bytesPerRequest / 1024).toFixed(1)} KB/answer)`
+  const fmt = (r: Row) => `(p50 ${r.p50.toFixed(2)} ms, p99 ${r.p99.toFixed(2)} ms, ${(r.bytesPerRequest / 1024).toFixed(1)} KB/answer${r.cpuMicros === undefined ? '' : `, nginx CPU ${r.cpuMicros.toFixed(1)} µs/answer`})`
   const rate = (r: { perSecond: number }) => `${r.perSecond.toFixed(0).padStart(6)} req/s`
   console.log(`1a. nginx static, ${os.cpus().length} workers:  ${rate(stat!)} ${fmt(stat!)}`)
   console.log(`1b. nginx static, 1 worker:   ${rate(statOne!)} ${fmt(statOne!)}`)
@@ -236,7 +287,7 @@ try {
   for (const [i, b] of bares.entries()) {
     console.log(`2b. bare Node, same head and bytes, ${servers[i]!.processes} process(es): ${rate(b)} = ${(b.perSecond / stat!.perSecond).toFixed(2)} of 1a; the app's hit is ${(nodes[i]!.perSecond / b.perSecond).toFixed(2)} of it ${fmt(b)}`)
   }
-  console.log(`3.  shipped nginx before Node (${fixture.processes} process(es)): ${rate(cached!)} = ${(cached!.perSecond / stat!.perSecond).toFixed(2)} of 1a (target >= 0.95) ${fmt(cached!)}`)
+  console.log(`3.  shipped nginx before Node (${fixture.processes} process(es)): ${rate(cached!)} = ${(cached!.perSecond / stat!.perSecond).toFixed(2)} of 1a (target >= 0.95) ${fmt(cached!)}; its CPU per answer is ${(cached!.cpuMicros! / stat!.cpuMicros!).toFixed(2)} of 1a's`)
   await uncachedRows(servers, fixture.readerCookie)
   console.log(`load average after the run ${os.loadavg().map(l => l.toFixed(1)).join(' ')}`)
   const js = await firstLoad(storyUrl)
