@@ -6,13 +6,18 @@
 // nginx's map (ngx_http_map_find): the value, lowercased, is looked up among the exact
 // strings first; then the expressions are tried in order ("~*" case-insensitive); then
 // the default. JavaScript's \b is PCRE's for these ASCII headers.
-import { readFileSync } from 'node:fs'
+import { spawnSync } from 'node:child_process'
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 
 interface NginxMap { defaultValue: string, exact: Map<string, string>, patterns: { re: RegExp, value: string }[] }
 
+const shipped = () => readFileSync(new URL('../../../deploy/nginx/pullsheet.conf', import.meta.url), 'utf8')
+
 function readMap(variable: string): NginxMap {
-  const conf = readFileSync(new URL('../../../deploy/nginx/pullsheet.conf', import.meta.url), 'utf8')
+  const conf = shipped()
   const block = new RegExp(`map \\$http_accept_encoding \\${variable} \\{([\\s\\S]*?)\\n\\}`).exec(conf)
   if (!block) throw new Error(`no map for ${variable} in pullsheet.conf`)
   const map: NginxMap = { defaultValue: '', exact: new Map(), patterns: [] }
@@ -53,5 +58,38 @@ describe('pullsheet.conf, the Accept-Encoding map', () => {
     expect(lookup(map, 'brotli, gzipped')).toBe('')
     expect(lookup(map, 'identity')).toBe('')
     expect(lookup(map, '')).toBe('')
+  })
+})
+
+// The whole file as Debian's nginx reads it from conf.d (inside http {}), with a throwaway
+// certificate and the paths moved into a temporary folder. Where nginx or openssl is not
+// installed there is nothing to check it against.
+const installed = (command: string, versionArg: string) => spawnSync(command, [versionArg], { stdio: 'ignore' }).status === 0
+
+describe.runIf(installed('nginx', '-v') && installed('openssl', 'version'))('pullsheet.conf in the nginx installed here', () => {
+  it('passes nginx -t, with pcre_jit on in the main context as docs/deploy/nginx.md has it', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'pullsheet-nginx-'))
+    try {
+      const cert = spawnSync('openssl', ['req', '-x509', '-newkey', 'rsa:2048', '-nodes', '-days', '1', '-subj', '/CN=magazine.example', '-keyout', join(dir, 'key.pem'), '-out', join(dir, 'cert.pem')], { encoding: 'utf8' })
+      expect(cert.status, cert.stderr).toBe(0)
+      writeFileSync(join(dir, 'pullsheet.conf'), shipped()
+        .replace('/etc/ssl/certs/magazine.example.pem', join(dir, 'cert.pem'))
+        .replace('/etc/ssl/private/magazine.example.key', join(dir, 'key.pem'))
+        .replace('/var/cache/nginx/pullsheet', join(dir, 'cache'))
+        .replace('/var/log/nginx/pullsheet.access.log', join(dir, 'access.log')))
+      writeFileSync(join(dir, 'nginx.conf'), `pcre_jit on;
+pid ${dir}/nginx.pid;
+error_log ${dir}/error.log;
+events {}
+http {
+  include ${dir}/pullsheet.conf;
+}
+`)
+      const check = spawnSync('nginx', ['-t', '-q', '-p', dir, '-e', join(dir, 'error.log'), '-c', join(dir, 'nginx.conf')], { encoding: 'utf8' })
+      expect(check.status, check.stderr).toBe(0)
+    }
+    finally {
+      rmSync(dir, { recursive: true, force: true })
+    }
   })
 })
