@@ -97,7 +97,7 @@ export async function storeUploadedPhoto(db: Db, user: CurrentUser, benchTestId:
 
   const prefix = newPhotoPrefix(benchTestId)
   const originalKey = photoOriginalKey(prefix)
-  await whilePhotoStorageAnswers(() => putPhotoObject(originalKey, upload.bytes, inspected.mime))
+  await whilePhotoStorageAnswers(() => putPhotoObject(originalKey, upload.bytes, inspected.mime, upload.sha256))
   try {
     const row = await db.transaction(async (trx) => {
       // Uploads side by side into one bench test take their places one after the other.

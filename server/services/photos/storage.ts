@@ -39,8 +39,10 @@ export async function whilePhotoStorageAnswers<T>(work: () => Promise<T>): Promi
   }
 }
 
-export async function putPhotoObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
-  await useS3().send(new PutObjectCommand({ Bucket: appConfig().s3.bucket, Key: key, Body: body, ContentType: contentType }))
+/** `sha256Hex`: the body's SHA-256 when the caller has it (an upload is hashed as it streams in). */
+export async function putPhotoObject(key: string, body: Uint8Array, contentType: string, sha256Hex?: string): Promise<void> {
+  const command = new PutObjectCommand({ Bucket: appConfig().s3.bucket, Key: key, Body: body, ContentType: contentType })
+  await useS3().send(sha256Hex ? withKnownPayloadSha256(command, sha256Hex) : command)
 }
 
 function isMissing(error: unknown): boolean {
