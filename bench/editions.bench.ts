@@ -11,10 +11,10 @@
 // server's processes over the row, from /proc, divided by the pages answered): unlike the
 // latencies, that figure holds while other work shares the cores.
 // Last, the framework's own yardstick in the same run: a Nuxt app with nothing of ours
-// (bench/minimal-nuxt: one page of text about the size of /about, the project's Nuxt and
-// Vue), built into .data/bench and loaded the same way on one process. What a page can
-// cost here at the least, and what that gives at ten concurrent readers.
-import { readdirSync, readFileSync, rmSync } from 'node:fs'
+// (bench/minimal-nuxt: one page of plain text, the project's own Nuxt and Vue), built
+// into .data/bench and loaded the same way on one process. What a page can cost here at
+// the least, and what that gives at ten concurrent readers.
+import { rmSync } from 'node:fs'
 import os from 'node:os'
 import { join } from 'node:path'
 import { startApp } from '../scripts/lib/app'
@@ -27,6 +27,7 @@ import { buildDemoMagazine } from '../scripts/demo/magazine'
 import { DEMO_PASSWORD } from '../shared/utils/demo-accounts'
 import { Client } from '../tests/support/http'
 import { expectOk } from '../tests/support/workspace'
+import { processCpuMs } from './proc-cpu'
 import { clean, wrk, type WrkResult } from './wrk'
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 10)
@@ -44,22 +45,6 @@ const STORIES = [
  */
 const FLOOR = { name: 'about page (no story: the floor of any signed-in page)', path: '/about' }
 
-/** CPU time (ms) used so far by every process of a process group (the app server and its cluster's processes). */
-function groupCpuMs(pgid: number): number {
-  const tick = 1000 / 100 // USER_HZ: /proc counts in hundredths of a second on Linux
-  let ticks = 0
-  for (const pid of readdirSync('/proc')) {
-    if (!/^\d+$/.test(pid)) continue
-    let stat: string
-    try { stat = readFileSync(`/proc/${pid}/stat`, 'utf8') }
-    catch { continue } // gone meanwhile
-    // Fields after the command name: state ppid pgrp ... utime (14th field) stime (15th).
-    const f = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
-    if (Number(f[2]) === pgid) ticks += Number(f[11]) + Number(f[12])
-  }
-  return ticks * tick
-}
-
 /**
  * Loads each URL with wrk at 10 connections (first the same load, uncounted, while the
  * JIT warms up), the servers taking turns, two rounds of half the time each; one line per
@@ -71,9 +56,9 @@ async function measure(urls: string[], pids: number[], headers: Record<string, s
   const cpuMs = urls.map(() => 0)
   for (let round = 0; round < 2; round++) {
     for (const [i, url] of urls.entries()) {
-      const before = groupCpuMs(pids[i]!)
+      const before = processCpuMs({ group: pids[i]! })
       halves[i]!.push(clean(url, await wrk(url, { connections: 10, seconds: SECONDS / 2, headers })))
-      cpuMs[i]! += groupCpuMs(pids[i]!) - before
+      cpuMs[i]! += processCpuMs({ group: pids[i]! }) - before
     }
   }
   return halves.map(([a, b], i) => {

@@ -22,12 +22,14 @@
 //   5. first-load JS of the story page                  < 120 KB gzip
 //   6. the story page on the wire                       <= 40 KB
 // `reader.bench.ts uncached` runs row 4 alone (no nginx), e.g. under a CPU profile.
-import { spawnSync } from 'node:child_process'
-import { chmodSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
+import { chmodSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { request } from 'node:http'
 import os from 'node:os'
 import { join } from 'node:path'
 import { ROOT } from '../scripts/lib/env'
 import { firstLoad } from './first-load'
+import { processCpuMs } from './proc-cpu'
 import { readerFixture } from './reader-fixture'
 import { clean, wrk, type WrkResult } from './wrk'
 
@@ -107,50 +109,26 @@ type Row = WrkResult & { cpuMicros?: number }
 /**
  * The URLs in turn, twice, half the time each, so a change in the machine's other load
  * during the run moves them all alike; requests/s over both halves, latency of the second.
- * `cpu[i]`, when given, reads the CPU seconds of URL i's server so far: the row then
+ * `cpu[i]`, when given, reads the CPU milliseconds of URL i's server so far: the row then
  * also reports microseconds of CPU per answer, which the machine's other load moves far
  * less than requests/s.
  */
 async function alternating(urls: string[], connections: number, headers: Record<string, string>, cpu: ((() => number) | undefined)[] = []): Promise<Row[]> {
   const halves: WrkResult[][] = urls.map(() => [])
-  const cpuSeconds = urls.map(() => 0)
+  const cpuMs = urls.map(() => 0)
   for (let round = 0; round < 2; round++) {
     for (const [i, url] of urls.entries()) {
       const before = cpu[i]?.() ?? 0
       halves[i]!.push(clean(url, await wrk(url, { connections, seconds: SECONDS / 2, headers })))
-      cpuSeconds[i]! += (cpu[i]?.() ?? 0) - before
+      cpuMs[i]! += (cpu[i]?.() ?? 0) - before
     }
   }
   return halves.map(([a, b], i) => ({
     ...b!,
     requests: a!.requests + b!.requests,
     perSecond: (a!.requests + b!.requests) / (a!.requests / a!.perSecond + b!.requests / b!.perSecond),
-    cpuMicros: cpu[i] ? cpuSeconds[i]! * 1e6 / (a!.requests + b!.requests) : undefined,
+    cpuMicros: cpu[i] ? cpuMs[i]! * 1000 / (a!.requests + b!.requests) : undefined,
   }))
-}
-
-const CLOCK_TICKS = Number(spawnSync('getconf', ['CLK_TCK'], { encoding: 'utf8' }).stdout) || 100
-
-/**
- * CPU seconds (user + system) spent so far by a process's children: an nginx master's
- * workers (and its cache manager, idle here), read from /proc.
- */
-function childrenCpuSeconds(parent: number): number {
-  let ticks = 0
-  for (const name of readdirSync('/proc')) {
-    if (!/^\d+$/.test(name)) continue
-    let stat: string
-    try {
-      stat = readFileSync(`/proc/${name}/stat`, 'utf8')
-    }
-    catch {
-      continue // gone meanwhile
-    }
-    // After the command's ")": state, ppid, ... utime (12th), stime (13th).
-    const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ')
-    if (Number(fields[1]) === parent) ticks += Number(fields[11]) + Number(fields[12])
-  }
-  return ticks / CLOCK_TICKS
 }
 
 async function checkUncached(url: string, cookie: string) {
@@ -174,8 +152,7 @@ async function uncachedRows(servers: { base: string, processes: number }[], cook
 }
 
 /** The bytes of one answer, on a connection of its own. */
-async function wireBytes(url: string, encoding: string): Promise<number> {
-  const { request } = await import('node:http')
+function wireBytes(url: string, encoding: string): Promise<number> {
   return new Promise((resolve, reject) => {
     request(url, { agent: false, headers: { 'accept-encoding': encoding } }, (res) => {
       let n = 0
@@ -199,20 +176,21 @@ if (process.argv[2] === 'uncached') {
   }
   process.exit(0)
 }
-let nginx: ReturnType<typeof import('node:child_process').spawn> | undefined
-let bare: ReturnType<typeof import('node:child_process').spawn>[] = []
-
-/** Row 2b's servers: the app's cached answer (head and Brotli bytes) served by bare Node, one server per app server. */
-async function startBareNode(url: string, processes: number[]): Promise<ReturnType<typeof import('node:child_process').spawn>[]> {
-  const { request } = await import('node:http')
-  const { spawn } = await import('node:child_process')
-  const answer = await new Promise<{ headers: Record<string, unknown>, body: Buffer }>((resolve, reject) => {
+/** The app's cached answer of a page in Brotli, head and bytes, on a connection of its own. */
+function cachedAnswer(url: string): Promise<{ headers: Record<string, unknown>, body: Buffer }> {
+  return new Promise((resolve, reject) => {
     request(url, { agent: false, headers: BROTLI }, (res) => {
       const chunks: Buffer[] = []
       res.on('data', (chunk: Buffer) => chunks.push(chunk))
-      res.on('end', () => resolve({ headers: res.headers, body: Buffer.concat(chunks) }))
+      res.on('end', () => (res.headers['content-encoding'] === 'br'
+        ? resolve({ headers: res.headers, body: Buffer.concat(chunks) })
+        : reject(new Error('the cached page came back without Brotli'))))
     }).on('error', reject).end()
   })
+}
+
+/** Row 2b's servers: the app's cached answer served by bare Node, one server per app server. */
+async function startBareNode(answer: { headers: Record<string, unknown>, body: Buffer }, processes: number[]): Promise<ChildProcess[]> {
   const skip = new Set(['date', 'connection', 'keep-alive', 'transfer-encoding', 'content-length'])
   const head = Object.fromEntries(Object.entries(answer.headers).filter(([name]) => !skip.has(name)))
   writeFileSync(join(dir, 'bare-head.json'), JSON.stringify(head))
@@ -224,16 +202,16 @@ async function startBareNode(url: string, processes: number[]): Promise<ReturnTy
   await new Promise(r => setTimeout(r, 1000))
   return children
 }
-let nginxOne: ReturnType<typeof import('node:child_process').spawn> | undefined
+
+let nginx: ChildProcess | undefined
+let nginxOne: ChildProcess | undefined
+let bare: ChildProcess[] = []
 try {
   const storyUrl = `${fixture.base}/stories/${fixture.slug}`
-  const brotli = await new Promise<Buffer>((resolve, reject) => {
-    import('node:http').then(({ request }) => request(storyUrl, { headers: BROTLI }, (res) => {
-      const chunks: Buffer[] = []
-      res.on('data', (c: Buffer) => chunks.push(c))
-      res.on('end', () => (res.headers['content-encoding'] === 'br' ? resolve(Buffer.concat(chunks)) : reject(new Error('the cached page came back without Brotli'))))
-    }).on('error', reject).end(), reject)
-  })
+  // The first answer fills the page cache; the second is a hit, whose head row 2b copies.
+  await cachedAnswer(storyUrl)
+  const answer = await cachedAnswer(storyUrl)
+  const brotli = answer.body
   mkdirSync(join(dir, 'static'), { recursive: true })
   // nginx's workers drop root for "nobody": they must reach the folders and write the cache.
   for (const up of [join(ROOT, '.data'), join(ROOT, '.data', 'bench'), dir, join(dir, 'static')]) chmodSync(up, 0o755)
@@ -248,7 +226,6 @@ try {
     const check = spawnSync('nginx', ['-t', '-p', dir, '-c', join(dir, conf)], { encoding: 'utf8' })
     if (check.status !== 0) throw new Error(`nginx -t (${conf}): ${check.stderr}`)
   }
-  const { spawn } = await import('node:child_process')
   nginx = spawn('nginx', ['-p', dir, '-c', join(dir, 'nginx.conf')], { stdio: 'inherit' })
   nginxOne = spawn('nginx', ['-p', dir, '-c', join(dir, 'nginx-one.conf')], { stdio: 'inherit' })
   await new Promise(r => setTimeout(r, 500))
@@ -264,7 +241,7 @@ try {
   }
   console.log(`nginx cache status on the second request: ${edge.headers.get('x-edge-cache')}; node page cache: ${(await fetch(storyUrl, { headers: BROTLI })).headers.get('x-page-cache')}`)
   const wire = { br: await wireBytes(storyUrl, 'br'), gzip: await wireBytes(storyUrl, 'gzip'), none: await wireBytes(storyUrl, 'identity') }
-  bare = await startBareNode(storyUrl, servers.map(s => s.processes))
+  bare = await startBareNode(answer, servers.map(s => s.processes))
 
   console.log(`${os.cpus().length} cores, ${os.cpus()[0]?.model}; load average ${os.loadavg().map(l => l.toFixed(1)).join(' ')}; wrk ${CONNECTIONS} connections, 2 threads, 2 x ${SECONDS / 2} s each in turns, Brotli bytes (${(brotli.byteLength / 1024).toFixed(1)} KB) on every row`)
   // Every row of the cached page takes its turn in each of two rounds.
@@ -273,7 +250,7 @@ try {
   const bareUrls = servers.map((_, i) => `http://127.0.0.1:${BARE_NODE_PORT + i}/stories/${fixture.slug}`)
   // nginx's rows also count its workers' CPU per answer (rows 1a and 3 share the workers,
   // but take their turns apart).
-  const nginxCpu = (master: number | undefined) => () => childrenCpuSeconds(master!)
+  const nginxCpu = (master: number | undefined) => () => processCpuMs({ parent: master! })
   const [stat, statOne, cached, ...rest] = await alternating([staticUrl, staticOneUrl, edgeUrl, ...nodeUrls, ...bareUrls], CONNECTIONS, BROTLI, [nginxCpu(nginx.pid), nginxCpu(nginxOne.pid), nginxCpu(nginx.pid)])
   const nodes = rest.slice(0, servers.length)
   const bares = rest.slice(servers.length)
